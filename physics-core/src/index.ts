@@ -1,0 +1,4 @@
+/** Public entry of physics-core: named exports only. */
+export * from './model/types.js';
+export * from './result.js';
+export const CORE_VERSION = '0.1.0';
