@@ -1,0 +1,24 @@
+import { useState } from 'react';
+import { createBrowserRouter, RouterProvider, type RouteObject } from 'react-router-dom';
+import { AppLayout, ShellLoading } from './routes/app-layout.js';
+import { RouteError } from './routes/route-error.js';
+
+/** Route table; pages load lazily, the shell itself is in the main chunk. */
+export const routes: RouteObject[] = [
+  {
+    path: '/',
+    Component: AppLayout,
+    HydrateFallback: ShellLoading,
+    ErrorBoundary: RouteError,
+    children: [
+      { index: true, lazy: () => import('./routes/home.js') },
+      { path: 'status', lazy: () => import('./routes/status.js') },
+      { path: '*', lazy: () => import('./routes/not-found.js') },
+    ],
+  },
+];
+
+export function AppRouter() {
+  const [router] = useState(() => createBrowserRouter(routes));
+  return <RouterProvider router={router} />;
+}

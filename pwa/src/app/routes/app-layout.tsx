@@ -1,0 +1,106 @@
+import { CORE_VERSION } from '@phasewright/physics-core';
+import type { ReactNode } from 'react';
+import { NavLink, Outlet } from 'react-router-dom';
+import { Badge } from '../../components/ui/badge.js';
+import { Button } from '../../components/ui/button.js';
+import { LogoMark } from '../../components/ui/logo-mark.js';
+import {
+  dismissServiceWorkerNotice,
+  reloadWithUpdate,
+  useServiceWorkerState,
+} from '../../lib/service-worker.js';
+import { useOnlineStatus } from '../../lib/use-online-status.js';
+
+const NAV_ITEMS = [
+  { to: '/', label: 'Home', end: true },
+  { to: '/status', label: 'Status', end: false },
+] as const;
+
+function navClass({ isActive }: { isActive: boolean }): string {
+  return `rounded-md px-3 py-1.5 text-sm font-semibold transition-colors ${
+    isActive ? 'bg-white/15 text-white' : 'text-accent-100 hover:bg-white/10 hover:text-white'
+  }`;
+}
+
+function ServiceWorkerNotice() {
+  const { offlineReady, needRefresh } = useServiceWorkerState();
+  if (!offlineReady && !needRefresh) return null;
+  return (
+    <div
+      role="status"
+      className="fixed right-4 bottom-4 z-10 max-w-sm rounded-lg border border-line bg-surface p-4 shadow-lg"
+    >
+      <p className="text-sm text-ink-900">
+        {needRefresh
+          ? 'A new version of Phasewright is ready. Reload when no computation is running.'
+          : 'Phasewright is cached on this device and will open without a network.'}
+      </p>
+      <div className="mt-3 flex gap-2">
+        {needRefresh ? <Button onClick={() => void reloadWithUpdate()}>Reload</Button> : null}
+        <Button variant="secondary" onClick={dismissServiceWorkerNotice}>
+          {needRefresh ? 'Later' : 'OK'}
+        </Button>
+      </div>
+    </div>
+  );
+}
+
+/** The frame around every page: header with the mark and navigation, footer with versions. */
+export function AppShell({ children }: { children: ReactNode }) {
+  const online = useOnlineStatus();
+  return (
+    <div className="flex min-h-screen flex-col font-sans">
+      <a
+        href="#main"
+        className="sr-only focus:not-sr-only focus:absolute focus:top-2 focus:left-2 focus:z-20 focus:rounded-md focus:bg-surface focus:px-3 focus:py-2 focus:text-ink-900"
+      >
+        Skip to content
+      </a>
+      <header className="bg-ink-900 text-white">
+        <div className="mx-auto flex max-w-5xl flex-wrap items-center gap-x-6 gap-y-2 px-5 py-3">
+          <NavLink to="/" className="flex items-center gap-2.5 rounded-md" aria-label="Phasewright, home">
+            <LogoMark size={34} />
+            <span className="text-lg font-bold tracking-tight">Phasewright</span>
+          </NavLink>
+          <nav aria-label="Main" className="flex flex-1 items-center gap-1">
+            {NAV_ITEMS.map((item) => (
+              <NavLink key={item.to} to={item.to} end={item.end} className={navClass}>
+                {item.label}
+              </NavLink>
+            ))}
+          </nav>
+          {online ? null : <Badge tone="warn">Offline</Badge>}
+        </div>
+      </header>
+      <main id="main" className="mx-auto w-full max-w-5xl flex-1 px-5 py-8">
+        {children}
+      </main>
+      <footer className="border-t border-line">
+        <div className="mx-auto flex max-w-5xl flex-wrap justify-between gap-2 px-5 py-4 text-sm text-ink-600">
+          <span>Phasewright — phase diagrams of lattice bosons, computed in your browser.</span>
+          <span data-testid="core-version">physics-core v{CORE_VERSION}</span>
+        </div>
+      </footer>
+      <ServiceWorkerNotice />
+    </div>
+  );
+}
+
+export function AppLayout() {
+  return (
+    <AppShell>
+      <Outlet />
+    </AppShell>
+  );
+}
+
+/** Shown while the first lazy page loads. */
+export function ShellLoading() {
+  return (
+    <AppShell>
+      <p className="text-ink-600" role="status">
+        Loading…
+      </p>
+    </AppShell>
+  );
+}
