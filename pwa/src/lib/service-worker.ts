@@ -51,6 +51,21 @@ function subscribe(listener: () => void): () => void {
   return () => listeners.delete(listener);
 }
 
+function subscribeController(listener: () => void): () => void {
+  if (!('serviceWorker' in navigator)) return () => {};
+  navigator.serviceWorker.addEventListener('controllerchange', listener);
+  return () => navigator.serviceWorker.removeEventListener('controllerchange', listener);
+}
+
+function isControlled(): boolean {
+  return 'serviceWorker' in navigator && navigator.serviceWorker.controller !== null;
+}
+
+/** True when this page is served by the service worker, i.e. the app opens offline. */
+export function useServiceWorkerControlled(): boolean {
+  return useSyncExternalStore(subscribeController, isControlled, () => false);
+}
+
 export function useServiceWorkerState(): ServiceWorkerState {
   return useSyncExternalStore(subscribe, () => state, () => state);
 }

@@ -7,6 +7,7 @@ import { Card } from '../../../components/ui/card.js';
 import { Notice } from '../../../components/ui/notice.js';
 import { ApiError } from '../../../lib/api-client.js';
 import { useOnlineStatus } from '../../../lib/use-online-status.js';
+import { DeviceCard } from './device-card.js';
 import { HEALTH_PATH, useHealth, type Health } from '../api/get-health.js';
 
 export function formatUptime(seconds: number): string {
@@ -140,6 +141,8 @@ export function HealthPanel() {
 
         {data ? <HealthCards health={data} /> : null}
       </div>
+
+      <DeviceCard />
 
       {data ? (
         <Disclosure>

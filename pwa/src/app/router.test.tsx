@@ -1,0 +1,37 @@
+import { CORE_VERSION } from '@phasewright/physics-core';
+import { render, screen, within } from '@testing-library/react';
+import { createMemoryRouter, RouterProvider } from 'react-router-dom';
+import { describe, expect, it } from 'vitest';
+import { AppProvider } from './provider.js';
+import { routes } from './router.js';
+import { createQueryClient } from '../lib/query-client.js';
+
+function renderAt(path: string) {
+  const router = createMemoryRouter(routes, { initialEntries: [path] });
+  render(
+    <AppProvider client={createQueryClient()}>
+      <RouterProvider router={router} />
+    </AppProvider>,
+  );
+  return router;
+}
+
+describe('app shell', () => {
+  it('renders the navigation, the home page and the core version from physics-core', async () => {
+    renderAt('/');
+    const nav = await screen.findByRole('navigation', { name: 'Main' });
+    expect(within(nav).getByRole('link', { name: 'Home' }).getAttribute('aria-current')).toBe('page');
+    expect(within(nav).getByRole('link', { name: 'Status' }).getAttribute('href')).toBe('/status');
+    expect(await screen.findByRole('heading', { level: 1, name: /phase diagrams/i })).toBeTruthy();
+    expect(screen.getByText('Fidelity peaks indicate, they do not prove')).toBeTruthy();
+    expect(screen.getByTestId('core-version').textContent).toBe(`physics-core v${CORE_VERSION}`);
+    expect(CORE_VERSION).toMatch(/^\d+\.\d+\.\d+/);
+  });
+
+  it('shows the 404 page inside the shell for an unknown path', async () => {
+    renderAt('/no/such/page');
+    expect(await screen.findByRole('heading', { name: 'No page here' })).toBeTruthy();
+    expect(screen.getByText('/no/such/page')).toBeTruthy();
+    expect(screen.getByRole('navigation', { name: 'Main' })).toBeTruthy();
+  });
+});
