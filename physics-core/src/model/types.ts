@@ -139,6 +139,11 @@ export interface Path {
   dy: number;
   /** Total boundary crossings per axis going from → to. */
   wrap: number[];
+  /**
+   * The bond joining the two ends with this displacement (same periodic image), when one was
+   * built; sign +1 when the path runs along the bond's orientation. (Added compatibly.)
+   */
+  pair?: { bond: number; sign: 1 | -1 };
 }
 
 /** A smallest loop, sites listed counter-clockwise. */
