@@ -1,0 +1,43 @@
+import { describe, expect, it } from 'vitest';
+import { SpecError } from '../errors.js';
+import { chainSweep, fakeSolve } from '../sweep/fake-solver.js';
+import { InProcessExecutor, runSweep } from '../sweep/run.js';
+import { parseMap, parseMapText, serializeMap } from './map-format.js';
+
+const runtime = { kind: 'node' as const, version: 'v20', cores: 1 };
+
+describe('map format v1', () => {
+  it('round-trips losslessly through text', async () => {
+    const { map } = await runSweep(chainSweep({ refine: { maxDepth: 2, on: ['label'] } }), { executor: new InProcessExecutor(fakeSolve), runtime, author: 'ana' });
+    const text = serializeMap(map);
+    const back = parseMapText(text);
+    expect(back).toEqual(map);
+    expect(serializeMap(back)).toBe(text);
+  });
+
+  it('refuses a newer format version with a clear message', () => {
+    expect(() => parseMap({ spec: 'phasewright.map/2' })).toThrow(
+      '$.spec: this map was written by a newer Phasewright (map/2); this version reads map/1',
+    );
+  });
+
+  it('names bad fields by JSON path', async () => {
+    const { map } = await runSweep(chainSweep(), { executor: new InProcessExecutor(fakeSolve), runtime });
+    const bad = JSON.parse(serializeMap(map));
+    bad.points['V=1'].energy = 'low';
+    bad.points['V=1'].observables.gap = [1, 'x'];
+    bad.provenance.runtime.kind = 'phone';
+    bad.sweep.axes[0].points = 0;
+    try {
+      parseMap(bad);
+      expect.unreachable();
+    } catch (error) {
+      expect(error).toBeInstanceOf(SpecError);
+      const paths = (error as SpecError).issues.map((i) => i.path);
+      expect(paths).toEqual(expect.arrayContaining([
+        '$.points["V=1"].energy', '$.points["V=1"].observables.gap', '$.provenance.runtime.kind', '$.sweep.axes[0].points',
+      ]));
+    }
+    expect(() => parseMapText('{"spec": ')).toThrow(/not valid JSON \(/);
+  });
+});

@@ -1,0 +1,148 @@
+/**
+ * Merging maps of the same identity, by the physics of their points:
+ *
+ * - the union of points; a point present in several maps keeps one primary result;
+ * - ED: results of one point must agree in energy within a relative tolerance; those that do
+ *   are kept as confirmations in `history`, those that do not in `disputed` (the point is then
+ *   disputed). The primary result is the lowest energy (ties broken canonically).
+ * - mean-field: the lowest energy wins (the better variational upper bound); the others go to
+ *   `history` with their provenance.
+ *
+ * Every result ever seen for a point is kept once (summaries are compared as canonical JSON),
+ * and the outcome depends only on that set, so merge is commutative, associative and
+ * idempotent (`mergeMaps(a, a)` equals `normaliseMap(a)`; maps written by the engine are normal).
+ */
+import { PhasewrightError } from '../errors.js';
+import { canonicalJson } from './canonical-json.js';
+import type { MapPoint, MapSource, PhaseMap, PointSummary } from './map-format.js';
+
+export interface MergeOptions {
+  /** Relative energy tolerance for ED results of the same point. @default 1e-8 */
+  edRelativeTolerance?: number;
+  /** Absolute floor of the ED tolerance (energies near zero). @default 1e-12 */
+  edAbsoluteTolerance?: number;
+}
+
+export class MergeError extends PhasewrightError {
+  constructor(message: string, details?: Record<string, unknown>) {
+    super(message, 'merge', undefined, details);
+    this.name = 'MergeError';
+  }
+}
+
+function summaryOf(p: MapPoint): PointSummary {
+  const s: PointSummary = { energy: p.energy, convergence: p.convergence, wallMs: p.wallMs, seed: p.seed, computed: p.computed };
+  if (p.label !== undefined) s.label = p.label;
+  if (p.warnings !== undefined) s.warnings = p.warnings;
+  return s;
+}
+
+/** Orders results: lower energy first, then canonical text (a total order on distinct results). */
+function compareResults(a: { energy: number; text: string }, b: { energy: number; text: string }): number {
+  if (a.energy !== b.energy) return a.energy < b.energy ? -1 : 1;
+  return a.text < b.text ? -1 : a.text > b.text ? 1 : 0;
+}
+
+/** Agreement of two ED energies within tolerance. */
+export function edEnergiesAgree(a: number, b: number, options: MergeOptions = {}): boolean {
+  const rel = options.edRelativeTolerance ?? 1e-8;
+  const abs = options.edAbsoluteTolerance ?? 1e-12;
+  return Math.abs(a - b) <= Math.max(abs, rel * Math.max(Math.abs(a), Math.abs(b)));
+}
+
+/** Merges results of one point (same key); `method` decides the rule. */
+export function mergePoints(points: MapPoint[], method: 'ed' | 'meanfield', options: MergeOptions = {}): MapPoint {
+  if (points.length === 0) throw new MergeError('nothing to merge');
+  // The primary: the best full result among the inputs' primaries.
+  const candidates = points.map((p) => ({ point: p, energy: p.energy, text: canonicalJson(summaryOf(p)), full: canonicalJson(p) }));
+  candidates.sort((a, b) => compareResults(a, b) || (a.full < b.full ? -1 : a.full > b.full ? 1 : 0));
+  const best = candidates[0].point;
+  const bestText = candidates[0].text;
+  // Every other result ever seen, once.
+  const others = new Map<string, PointSummary>();
+  for (const p of points) {
+    for (const s of [summaryOf(p), ...(p.disputed ?? []), ...(p.history ?? [])]) {
+      const text = canonicalJson(s);
+      if (text !== bestText) others.set(text, s);
+    }
+  }
+  const disputed: { energy: number; text: string; s: PointSummary }[] = [];
+  const history: { energy: number; text: string; s: PointSummary }[] = [];
+  for (const [text, s] of others) {
+    const entry = { energy: s.energy, text, s };
+    if (method === 'ed' && !edEnergiesAgree(s.energy, best.energy, options)) disputed.push(entry);
+    else history.push(entry);
+  }
+  disputed.sort(compareResults);
+  history.sort(compareResults);
+  const { disputed: _d, history: _h, ...rest } = best;
+  const out: MapPoint = { ...rest, level: Math.min(...points.map((p) => p.level)) };
+  if (disputed.length > 0) out.disputed = disputed.map((e) => e.s);
+  if (history.length > 0) out.history = history.map((e) => e.s);
+  return out;
+}
+
+const sortedUnique = <T>(items: T[], key: (x: T) => string): T[] => {
+  const m = new Map<string, T>();
+  for (const x of items) m.set(key(x), x);
+  return [...m.entries()].sort(([a], [b]) => (a < b ? -1 : a > b ? 1 : 0)).map(([, x]) => x);
+};
+
+function sourceOrder(a: MapSource, b: MapSource): number {
+  if (a.createdAt !== b.createdAt) return a.createdAt < b.createdAt ? -1 : 1;
+  const ta = canonicalJson(a);
+  const tb = canonicalJson(b);
+  return ta < tb ? -1 : ta > tb ? 1 : 0;
+}
+
+/**
+ * Merges maps of the same identity (throws MergeError on different identities: compare them
+ * with `compareMaps` instead). The result's provenance lists every source run; its author,
+ * runtime and createdAt are the earliest source's, finishedAt the latest any source recorded
+ * (sources interrupted and resumed keep no finishedAt).
+ */
+export function mergeMaps(maps: PhaseMap[], options: MergeOptions = {}): PhaseMap {
+  if (maps.length === 0) throw new MergeError('no maps to merge');
+  const id = maps[0].id;
+  for (const m of maps) {
+    if (m.id !== id) {
+      throw new MergeError(
+        `maps of different identities cannot be merged (${id.slice(0, 12)}… vs ${m.id.slice(0, 12)}…): they differ in model, sweep, solver options or core version; compare them instead`,
+        { ids: [id, m.id] },
+      );
+    }
+  }
+  const method = maps[0].sweep.method;
+  const byKey = new Map<string, MapPoint[]>();
+  for (const m of maps) {
+    for (const [key, p] of Object.entries(m.points)) {
+      const list = byKey.get(key);
+      if (list) list.push(p);
+      else byKey.set(key, [p]);
+    }
+  }
+  const points: Record<string, MapPoint> = {};
+  for (const key of [...byKey.keys()].sort()) points[key] = mergePoints(byKey.get(key) as MapPoint[], method, options);
+
+  const sources = sortedUnique(maps.flatMap((m) => m.provenance.sources), canonicalJson).sort(sourceOrder);
+  const first = sources[0];
+  const finished = sources.flatMap((s) => (s.finishedAt === undefined ? [] : [s.finishedAt])).sort().at(-1);
+  // The sweep text may differ in name/refinement settings (not part of the identity): keep the canonical least.
+  const sweep = sortedUnique(maps.map((m) => m.sweep), canonicalJson)[0];
+  const provenance: PhaseMap['provenance'] = {
+    createdAt: first.createdAt,
+    runtime: first.runtime,
+    seeds: [...new Set(maps.flatMap((m) => m.provenance.seeds))].sort((a, b) => a - b),
+    coreVersion: maps[0].provenance.coreVersion,
+    warnings: [...new Set(maps.flatMap((m) => m.provenance.warnings))].sort(),
+    sources,
+  };
+  if (first.author !== undefined) provenance.author = first.author;
+  if (finished !== undefined) provenance.finishedAt = finished;
+  return { spec: maps[0].spec, id, sweep, points, provenance };
+}
+
+/** The normal form of a map (what `mergeMaps([map])` returns). */
+export function normaliseMap(map: PhaseMap, options: MergeOptions = {}): PhaseMap {
+  return mergeMaps([map], options);
+}
