@@ -218,7 +218,8 @@ function collide(p: CellBond, q: CellBond | null, size: number[], boundary: Boun
   const same = (u: number[], v: number[]) =>
     u.every((x, a) => (boundary[a] === 'open' ? x === v[a] : (((x - v[a]) % size[a]) + size[a]) % size[a] === 0));
   const zero = p.offset.map(() => 0);
-  if (q === null) return p.from === p.to && same(p.offset, zero);
+  if (q === null)
+    return p.from === p.to && (same(p.offset, zero) || same(p.offset, p.offset.map((o) => -o)));
   if (p.from === q.from && p.to === q.to && same(p.offset, q.offset)) return true;
   return p.from === q.to && p.to === q.from && same(p.offset, q.offset.map((o) => -o));
 }
@@ -254,7 +255,7 @@ export function checkDistinctPairs(cellBonds: CellBond[], size: number[], bounda
   const classes = [...new Set([...p.classes, ...(q?.classes ?? [])])].join(', ') || `shell ${p.shell}`;
   const what =
     q === null
-      ? `a bond of class ${classes} would join a basis site to its own periodic image`
+      ? `a bond of class ${classes} would join a site to itself, or join the same pair of sites twice (once each way round the periodic axis)`
       : `two different periodic images of bonds (${classes}) would join the same pair of sites`;
   const hints: string[] = [];
   for (let a = 0; a < size.length; a++) {

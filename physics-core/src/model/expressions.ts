@@ -140,12 +140,13 @@ export function checkExpression(src: unknown, scope: readonly string[]): Express
   } catch (e) {
     const err = e as Error & { char?: number };
     const at = typeof err.char === 'number' ? err.char : undefined;
-    const token = at !== undefined ? src.slice(Math.max(0, at - 1), at + 1).trim() : '';
+    // mathjs counts characters from 1; past the end means the expression stopped too early
+    const rest = at !== undefined ? src.slice(Math.max(0, at - 1)).trim().slice(0, 8) : '';
     return {
       ok: false,
       message:
         `bad expression '${src}': ${err.message}` +
-        (at !== undefined ? ` — near '${token || src.slice(-1)}' at position ${at}` : ''),
+        (at === undefined ? '' : rest ? ` — at '${rest}' (character ${at})` : ' — it ends too early'),
     };
   }
   const symbols = new Set<string>();
