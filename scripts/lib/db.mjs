@@ -188,12 +188,13 @@ async function provision(settings) {
 
 /**
  * Settings for this checkout's database: environment first, then what db-start stored in
- * .data/db.json, then defaults (the password is generated once and stored there).
+ * .data/db.json, then defaults (the password is generated once and stored there). The stored
+ * port is that of the running instance; a new start uses PW_DB_PORT or 3307.
  */
 export function resolveDbSettings(env = process.env) {
   const state = readDbState();
   return {
-    port: portFromEnv('PW_DB_PORT', state.port ?? DEFAULT_DB_PORT, env),
+    port: portFromEnv('PW_DB_PORT', DEFAULT_DB_PORT, env),
     portFromEnv: Boolean(env.PW_DB_PORT),
     database: env.PW_DB_NAME || state.database || DEFAULT_DB_NAME,
     user: env.PW_DB_USER || state.user || DEFAULT_DB_USER,
