@@ -59,3 +59,11 @@ describe('parseSweepSpec', () => {
       .toContain('$.axes: 4000000 coarse points exceed the limit of 1000000');
   });
 });
+
+describe('the model inside a sweep', () => {
+  it('is checked by the model validator, with paths under $.model', () => {
+    const bad = chainSweep();
+    (bad.model.terms[0] as { amplitude: unknown }).amplitude = '-J*(';
+    expect(issuesOf(bad).some((i) => i.startsWith('$.model.terms[0].amplitude'))).toBe(true);
+  });
+});
