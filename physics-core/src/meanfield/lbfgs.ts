@@ -236,8 +236,12 @@ export function lbfgs(fn: Objective, x0: ArrayLike<number>, options: LbfgsOption
     }
     if (!accepted) {
       gnorm = maxAbs(g);
-      const conv = gnorm < o.gradientTolerance;
-      return { x, f, gradientNorm: gnorm, iterations, evaluations, converged: conv, reason: conv ? 'gradient' : 'line-search' };
+      if (gnorm < o.gradientTolerance) {
+        return { x, f, gradientNorm: gnorm, iterations, evaluations, converged: true, reason: 'gradient' };
+      }
+      // The predicted decrease of a full step is below the rounding of f: nothing left to gain.
+      const stuck = -dg <= 1e-13 * Math.max(1, Math.abs(f));
+      return { x, f, gradientNorm: gnorm, iterations, evaluations, converged: stuck, reason: stuck ? 'value' : 'line-search' };
     }
     // xt/gt hold the accepted point (phi was last called at acceptedT).
     iterations++;
