@@ -47,15 +47,23 @@ export const tests = [
       assert.equal(controlled, 'activated', 'the reloaded page is controlled by the service worker');
       await screenshot('home');
 
-      // Offline: the open page hears the 'offline' event and says so in the header.
+      // Client-side navigation to the status page, then the network goes away: the open page
+      // hears the 'offline' event and says so in the header and on the status page.
+      await page.getByRole('navigation', { name: 'Main' }).getByRole('link', { name: 'Status' }).click();
+      await page.getByRole('heading', { level: 1, name: 'Status' }).waitFor();
       await context.setOffline(true);
-      await page.getByText('Offline', { exact: true }).waitFor({ state: 'visible' });
+      await page.getByRole('banner').getByText('Offline', { exact: true }).waitFor({ state: 'visible' });
+      await page.locator('[data-health="connection"][data-state="offline"]').getByText('You are offline').waitFor();
+      await screenshot('status-offline');
 
-      // Reload offline: the shell comes from the precache, the font files too.
-      // (After a reload Chromium's emulation keeps the network down but may report
+      // Reload offline: /status is not a file, so the worker answers with the cached
+      // index.html (navigateFallback); the shell, its code and the font files come from the
+      // precache. (After a reload Chromium's emulation keeps the network down but may report
       // navigator.onLine as true again, so the test proves the network is down by fetching.)
       await page.reload();
       await expectShell(page);
+      await page.getByRole('heading', { level: 1, name: 'Status' }).waitFor();
+      await page.locator('[data-health="connection"]').waitFor({ state: 'visible' });
       const networkDown = await page.evaluate(() =>
         fetch(`/api/health?probe=${Date.now()}`).then(
           () => false,
@@ -69,13 +77,12 @@ export const tests = [
       });
       assert.ok(manrope.includes('loaded'), `Manrope loaded offline (font faces: ${manrope.join(', ') || 'none'})`);
       assert.ok(!manrope.includes('error'), `no Manrope face failed offline (${manrope.join(', ')})`);
-      await screenshot('home-offline');
 
-      // A client route opened offline falls back to the cached index.html.
-      await page.goto(`${baseUrl}/status`);
+      // The start page opens offline too.
+      await page.goto(`${baseUrl}/`);
       await expectShell(page);
-      await page.locator('[data-health="connection"]').waitFor({ state: 'visible' });
-      await screenshot('status-offline');
+      await page.getByRole('heading', { level: 1 }).waitFor();
+      await screenshot('home-offline');
     },
   },
   {

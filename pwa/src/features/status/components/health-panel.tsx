@@ -139,7 +139,11 @@ export function HealthPanel() {
           </p>
         ) : null}
 
-        {data ? <HealthCards health={data} /> : null}
+        {data ? (
+          <div className={failure ? 'opacity-60' : undefined}>
+            <HealthCards health={data} />
+          </div>
+        ) : null}
       </div>
 
       <DeviceCard />
