@@ -18,9 +18,7 @@
  */
 import { PhasewrightError } from '../errors.js';
 import { evaluateConstant } from '../model/expressions.js';
-import { compileModel } from '../model/compile.js';
-import { unitCellOf } from '../lattice/lattices.js';
-import { parseModelSpec } from '../model/validate.js';
+import { compileOnSupercellCluster } from './cluster.js';
 import type { CompiledModel, ModelSpec } from '../model/types.js';
 import type { Result } from '../result.js';
 import { RESULT_SPEC_ID } from '../result.js';
@@ -28,7 +26,7 @@ import { mulberry32 } from '../util/random.js';
 import { supercellEnergy } from './energy.js';
 import { lbfgs, type LbfgsOptions } from './lbfgs.js';
 import { hardcoreSiteSpace, type SiteSpace } from './site-space.js';
-import { resolveSupercell, supercellMomenta, type Supercell, type SupercellSpec } from './supercell.js';
+import { supercellMomenta, type Supercell, type SupercellSpec } from './supercell.js';
 import { buildSupercellModel, type SupercellModel } from './supercell-model.js';
 import { meanFieldObservables } from './observables.js';
 
@@ -133,15 +131,9 @@ export interface MeanFieldProblem {
 export function prepareMeanField(spec: ModelSpec, options: MeanFieldOptions = {}, overrides: Record<string, number> = {}): MeanFieldProblem {
   const o = checkMeanFieldOptions(options);
   const warnings: string[] = [];
-  parseModelSpec(spec); // clear errors (JSON paths) before any geometry
-  const translations = unitCellOf(spec.lattice).translations;
+  const { compiled, supercell } = compileOnSupercellCluster(spec, o.supercell, o.clusterCells, overrides);
+  const translations = compiled.lattice.translations;
   const dim = translations.length;
-  if (!Array.isArray(spec.lattice.size) || spec.lattice.size.length !== dim) {
-    throw new PhasewrightError(`needs ${dim} entries for a ${spec.lattice.kind} lattice`, 'spec', '$.lattice.size');
-  }
-  const supercell = resolveSupercell(o.supercell, translations, '$.solver.supercell');
-  const size = supercell.period.map((p) => p * Math.ceil(o.clusterCells / p));
-  const compiled = compileCluster(spec, size, overrides);
   const userSize = spec.lattice.size;
   const twist = (spec.lattice.twist ?? []).map((t, a) => evaluateConstant(t, compiled.parameters, `$.lattice.twist[${a}]`));
   const twistPerCell = new Array<number>(dim).fill(0).map((_, a) => (spec.lattice.boundary[a] === 'periodic' ? (twist[a] ?? 0) / userSize[a] : 0));
@@ -155,15 +147,6 @@ export function prepareMeanField(spec: ModelSpec, options: MeanFieldOptions = {}
   const particles = spec.particles;
   const filling = particles.count !== undefined ? particles.count / nUser : (particles.filling ?? 0);
   return { model, supercell, filling, twistPerCell, compiled, warnings, momenta: supercellMomenta(supercell, translations) };
-}
-
-function compileCluster(spec: ModelSpec, size: number[], overrides: Record<string, number>): CompiledModel {
-  const clusterSpec: ModelSpec = {
-    ...spec,
-    lattice: { ...spec.lattice, size, boundary: size.map(() => 'periodic'), twist: size.map(() => 0) },
-    particles: { kind: 'hardcore', filling: 0.5 },
-  };
-  return compileModel(clusterSpec, overrides);
 }
 
 /** Returns a warning when the compiled entries are not periodic under the supercell translations. */
