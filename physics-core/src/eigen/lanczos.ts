@@ -1,6 +1,6 @@
 import { mulberry32, gaussian } from '../util/random.js';
 import { denseSymmetricEigen } from './dense-symmetric.js';
-import { dotc, norm2, scale, subtractScaled } from './complex-vector.js';
+import { dotc, norm2, projectOut, scale, subtractScaled } from './complex-vector.js';
 
 /**
  * Lowest eigenpairs of a complex Hermitian operator given only as y = H x (interleaved complex
@@ -27,6 +27,8 @@ export interface LanczosOptions {
   seed?: number;
   /** Start vector (warm start), interleaved complex; need not be normalized. */
   startVector?: Float64Array;
+  /** Ritz vectors kept at a restart (≥ states + 1, < windowSize). @default states + ⌊(windowSize − states)/4⌋ (fewer kept vectors make each restart cheaper; measured in bench/ed.bench.ts) */
+  restartKeep?: number;
 }
 
 export interface LanczosResult {
@@ -60,11 +62,15 @@ export function checkLanczosOptions(dimension: number, options: LanczosOptions =
   windowSize = Math.min(windowSize, dimension);
   const seed = options.seed ?? 1;
   if (!Number.isInteger(seed)) throw new RangeError(`seed must be an integer, got ${seed}`);
+  const restartKeep = Math.min(windowSize - 1, options.restartKeep ?? states + Math.floor((windowSize - states) / 4));
+  if (!Number.isInteger(restartKeep) || restartKeep < Math.min(states + 1, windowSize - 1)) {
+    throw new RangeError(`restartKeep must be an integer in ${states + 1}..${windowSize - 1}, got ${restartKeep}`);
+  }
   const startVector = options.startVector;
   if (startVector && startVector.length !== 2 * dimension) {
     throw new RangeError(`startVector has length ${startVector.length}, expected ${2 * dimension} (interleaved complex)`);
   }
-  return { states, tolerance, maxIterations, windowSize, seed, startVector };
+  return { states, tolerance, maxIterations, windowSize, seed, startVector, restartKeep };
 }
 
 /** Bytes of the vectors Lanczos allocates for a given dimension and window. */
@@ -94,15 +100,14 @@ export function lanczos(
   };
   const T = new Float64Array(m * m);
   const h = new Float64Array(2);
+  const hRe = new Float64Array(m + 1);
+  const hIm = new Float64Array(m + 1);
 
   /** Orthogonalizes w against V[0..count−1] (one classical Gram–Schmidt pass, repeated if the norm drops a lot). */
   const orthogonalize = (w: Float64Array, count: number): number => {
     let before = norm2(w);
     for (let pass = 0; pass < 3; pass++) {
-      for (let i = 0; i < count; i++) {
-        dotc(V[i], w, h);
-        subtractScaled(w, V[i], h[0], h[1]);
-      }
+      projectOut(w, V, count, hRe, hIm);
       const after = norm2(w);
       if (!Number.isFinite(after)) throw new Error('Lanczos: a vector became NaN or infinite (check the operator)');
       if (after > 0.7 * before) return after;
@@ -128,8 +133,8 @@ export function lanczos(
   let normEstimate = 0;
   let j = 0; // next column of T to fill
   let lastBeta = 0;
-  let ritzValues = new Float64Array(0);
-  let ritzVectors = new Float64Array(0);
+  let ritzValues: Float64Array = new Float64Array(0);
+  let ritzVectors: Float64Array = new Float64Array(0);
   let size = 0;
 
   for (;;) {
@@ -194,7 +199,7 @@ export function lanczos(
     if (done || iterations >= maxIterations) break;
 
     // Thick restart: keep the lowest `keep` Ritz vectors, then the last Lanczos vector.
-    const keep = Math.min(size - 1, Math.max(k + 1, k + Math.floor((m - k) / 2)));
+    const keep = Math.min(size - 1, opts.restartKeep);
     combineInPlace(V, size, ritzVectors, keep, len);
     const last = V[size];
     V[size] = V[keep];

@@ -1,0 +1,232 @@
+import type { CompiledModel } from '../model/types.js';
+import { RESULT_SPEC_ID, type Result, type SiteResult } from '../result.js';
+import { CORE_VERSION } from '../index.js';
+import {
+  EdOperator,
+  checkEdOperatorOptions,
+  chooseStorage,
+  estimateOperator,
+  type OperatorStorage,
+} from '../operators/ed-operator.js';
+import { checkLanczosOptions, estimateLanczosBytes, lanczos } from '../eigen/lanczos.js';
+import type { StateManifold } from '../observables/manifold.js';
+import { densityCorrelations } from '../observables/densities.js';
+import { structureFactor } from '../observables/structure-factor.js';
+import { condensateFraction, momentumDistribution, oneBodyDensityMatrix } from '../observables/one-body.js';
+import { bondCurrents } from '../observables/currents.js';
+import { plaquetteObservables } from '../observables/plaquettes.js';
+
+export type EdObservable = 'densities' | 'structure-factor' | 'one-body' | 'currents' | 'plaquettes';
+export const ED_OBSERVABLES: readonly EdObservable[] = ['densities', 'structure-factor', 'one-body', 'currents', 'plaquettes'];
+
+export interface EdOptions {
+  /** Lowest eigenstates to compute (≥ 2 gives the gap). @default 2 */
+  states?: number;
+  /** Relative Lanczos residual ‖Hx − θx‖/‖H‖. @default 1e-10 */
+  tolerance?: number;
+  /** Largest number of H·x products. @default 3000 */
+  maxIterations?: number;
+  /** Lanczos basis vectors per restart window. @default max(20, 2·states + 10) */
+  windowSize?: number;
+  /** Seed of the random start vector. @default 1 */
+  seed?: number;
+  /** Warm-start vector (interleaved complex, length 2·dimension). */
+  startVector?: Float64Array;
+  /** Memory budget for basis, operator and Lanczos vectors. @default 1.5 GiB */
+  memoryBudgetBytes?: number;
+  /** Sparse storage of H. @default 'auto' (CSR when it fits the budget, else matrix-free) */
+  storage?: 'auto' | OperatorStorage;
+  /** States within this energy of E_0 (times max(1, |E_0|)) form the ground manifold. @default 1e-8 */
+  degeneracyTolerance?: number;
+  /** Observables to evaluate. @default all of ED_OBSERVABLES */
+  observables?: readonly EdObservable[];
+}
+
+export type ResolvedEdOptions = Required<Omit<EdOptions, 'startVector'>> & { startVector: Float64Array | undefined };
+
+export function checkEdOptions(options: EdOptions = {}): ResolvedEdOptions {
+  const states = options.states ?? 2;
+  const degeneracyTolerance = options.degeneracyTolerance ?? 1e-8;
+  if (!(degeneracyTolerance >= 0)) throw new RangeError(`degeneracyTolerance must be ≥ 0, got ${degeneracyTolerance}`);
+  const observables = options.observables ?? ED_OBSERVABLES;
+  for (const o of observables) {
+    if (!ED_OBSERVABLES.includes(o)) throw new RangeError(`unknown observable '${o}' (known: ${ED_OBSERVABLES.join(', ')})`);
+  }
+  const op = checkEdOperatorOptions({ storage: options.storage, memoryBudgetBytes: options.memoryBudgetBytes });
+  return {
+    states,
+    tolerance: options.tolerance ?? 1e-10,
+    maxIterations: options.maxIterations ?? 3000,
+    windowSize: options.windowSize ?? Math.max(20, 2 * states + 10),
+    seed: options.seed ?? 1,
+    startVector: options.startVector,
+    memoryBudgetBytes: op.memoryBudgetBytes,
+    storage: op.storage,
+    degeneracyTolerance,
+    observables,
+  };
+}
+
+/** A solved point with the eigenvectors, for warm starts and fidelities. */
+export interface EdSolution {
+  result: Result;
+  /** Lowest eigenvectors (interleaved complex), ascending energy. */
+  vectors: Float64Array[];
+  /** The ground manifold the observables were averaged over. */
+  manifold: StateManifold;
+  operator: EdOperator;
+}
+
+/**
+ * Exact diagonalization of a compiled hardcore-boson model; keeps its operator between calls so
+ * that a sweep re-weights instead of rebuilding, and (with `warmStart`) starts Lanczos from the
+ * previous ground state when the Hilbert space is unchanged.
+ */
+export class EdSolver {
+  private operator: EdOperator | null = null;
+  private previous: Float64Array | null = null;
+  private readonly options: ResolvedEdOptions;
+
+  constructor(options: EdOptions = {}, private readonly warmStart = false) {
+    this.options = checkEdOptions(options);
+  }
+
+  solve(model: CompiledModel): EdSolution {
+    const o = this.options;
+    const buildStart = now();
+    const lanczosOptions = checkLanczosOptions(
+      binomialDimension(model),
+      { states: o.states, tolerance: o.tolerance, maxIterations: o.maxIterations, windowSize: o.windowSize, seed: o.seed, startVector: o.startVector },
+    );
+    const dimension = binomialDimension(model);
+    // Memory check before anything is allocated.
+    const reserved = estimateLanczosBytes(dimension, lanczosOptions.windowSize, o.states);
+    const operatorOptions = { storage: o.storage, memoryBudgetBytes: o.memoryBudgetBytes, reservedBytes: reserved };
+    chooseStorage(estimateOperator(model), checkEdOperatorOptions(operatorOptions));
+    let rebuilt = true;
+    if (this.operator) rebuilt = this.operator.update(model) === 'rebuilt';
+    else this.operator = new EdOperator(model, operatorOptions);
+    const op = this.operator;
+    const buildMs = now() - buildStart;
+
+    const solveStart = now();
+    const start = o.startVector ?? (this.warmStart && !rebuilt && this.previous ? this.previous : undefined);
+    const eig = lanczos((x, y) => op.matvec(x, y), op.dimension, { ...lanczosOptions, startVector: start });
+    const lanczosMs = now() - solveStart;
+    const energies = eig.values;
+    const e0 = energies[0];
+    const degTol = o.degeneracyTolerance * Math.max(1, Math.abs(e0));
+    let g = 1;
+    while (g < energies.length && energies[g] - e0 <= degTol) g++;
+    const warnings: string[] = [];
+    if (!eig.converged) {
+      warnings.push(
+        `Lanczos did not converge: residual ${eig.residual.toExponential(2)} > tolerance ${o.tolerance} after ${eig.iterations} products H·x`,
+      );
+    }
+    if (g > 1) {
+      warnings.push(
+        `degenerate ground state: ${g} states within ${degTol.toExponential(1)} of E0; observables are averaged over them`,
+      );
+    }
+    if (g === energies.length && energies.length < dimension) {
+      warnings.push(`all ${g} computed states are degenerate; the ground manifold may be larger — raise states`);
+    }
+    const manifold: StateManifold = { basis: op.basis, vectors: eig.vectors.slice(0, g) };
+    this.previous = eig.vectors[0];
+
+    const obsStart = now();
+    const want = new Set(o.observables);
+    const lattice = model.lattice;
+    const extras: Record<string, unknown> = {};
+    let densities = new Float64Array(model.nSites);
+    let correlations = new Float64Array(0);
+    if (want.has('densities') || want.has('structure-factor') || want.has('one-body')) {
+      const dc = densityCorrelations(manifold);
+      densities = dc.densities;
+      correlations = dc.correlations;
+      extras.densityCorrelations = Array.from(correlations);
+    }
+    const sites: SiteResult[] = lattice.sites.map((s) => ({
+      index: s.index,
+      x: s.x,
+      y: s.y,
+      density: want.has('densities') ? densities[s.index] : Number.NaN,
+      condensate: [0, 0],
+    }));
+    const sq = want.has('structure-factor') ? structureFactor(lattice, densities, correlations) : [];
+    let fraction = Number.NaN;
+    if (want.has('one-body')) {
+      const obdm = oneBodyDensityMatrix(manifold, densities);
+      fraction = condensateFraction(obdm, model.nSites, model.nParticles);
+      extras.momentumDistribution = momentumDistribution(lattice, obdm);
+    } else warnings.push('condensate fraction not computed (one-body observables skipped)');
+    const currents = want.has('currents') || want.has('plaquettes') ? bondCurrents(model, manifold) : [];
+    let plaquettes: Result['plaquettes'] = [];
+    if (want.has('plaquettes')) {
+      const p = plaquetteObservables(model, manifold, currents);
+      plaquettes = p.plaquettes;
+      if (p.fluxUndefined.length) extras.fluxUndefined = p.fluxUndefined;
+    }
+    const observablesMs = now() - obsStart;
+    extras.dimension = op.dimension;
+    extras.nnz = op.nnz;
+    extras.storage = op.storage;
+    extras.operatorBytes = op.bytes;
+    extras.operatorRebuilt = rebuilt;
+    extras.groundDegeneracy = g;
+    extras.residuals = eig.residuals;
+    extras.restarts = eig.restarts;
+    extras.timing = { operatorMs: op.buildMs, lanczosMs, observablesMs };
+
+    const result: Result = {
+      spec: RESULT_SPEC_ID,
+      method: 'ed',
+      energy: e0,
+      energyPerSite: e0 / model.nSites,
+      energies,
+      gap: energies.length >= 2 ? energies[1] - e0 : null,
+      degenerate: g > 1,
+      sites,
+      bonds: want.has('currents') ? currents.map(({ from, to, class: c, current }) => ({ from, to, class: c, current })) : [],
+      plaquettes,
+      structureFactor: sq,
+      condensateFraction: fraction,
+      convergence: { converged: eig.converged, iterations: eig.iterations, residual: eig.residual },
+      timing: { buildMs, solveMs: now() - solveStart },
+      provenance: {
+        modelHash: '',
+        version: CORE_VERSION,
+        solver: {
+          states: o.states,
+          tolerance: o.tolerance,
+          maxIterations: o.maxIterations,
+          windowSize: lanczosOptions.windowSize,
+          seed: o.seed,
+          warmStart: start !== undefined,
+          degeneracyTolerance: o.degeneracyTolerance,
+        },
+      },
+      extras,
+      ...(warnings.length ? { warnings } : {}),
+    };
+    return { result, vectors: eig.vectors, manifold, operator: op };
+  }
+}
+
+/** Solves one model by exact diagonalization (see EdSolver). `provenance.modelHash` is left empty for the caller. */
+export function solveEd(model: CompiledModel, options: EdOptions = {}): Result {
+  return new EdSolver(options).solve(model).result;
+}
+
+function binomialDimension(model: CompiledModel): number {
+  let r = 1;
+  const n = model.nSites;
+  const k = Math.min(model.nParticles, n - model.nParticles);
+  for (let i = 1; i <= k; i++) r = (r * (n - k + i)) / i;
+  return Math.round(r);
+}
+
+function now(): number {
+  return globalThis.performance ? globalThis.performance.now() : Date.now();
+}
