@@ -38,6 +38,7 @@ export async function createTestDatabase(opts: { migrated?: boolean } = {}): Pro
   } catch (err) {
     throw new Error(
       `cannot reach the private MariaDB at ${base.host}:${base.port} (${(err as Error).message}); run \`npm run db:start\` first`,
+      { cause: err },
     );
   }
   await admin.query(`CREATE DATABASE \`${name}\` CHARACTER SET utf8mb4 COLLATE utf8mb4_unicode_ci`);
