@@ -87,6 +87,7 @@ export class EdSolver {
   private previous: Float64Array | null = null;
   private readonly options: ResolvedEdOptions;
 
+  /** @param warmStart start each solve from the previous ground state when the basis is unchanged */
   constructor(options: EdOptions = {}, private readonly warmStart = false) {
     this.options = checkEdOptions(options);
   }

@@ -55,11 +55,11 @@ export function checkLanczosOptions(dimension: number, options: LanczosOptions =
   if (!(tolerance > 0 && tolerance < 1)) throw new RangeError(`tolerance must be in (0, 1), got ${tolerance}`);
   const maxIterations = options.maxIterations ?? 3000;
   if (!Number.isInteger(maxIterations) || maxIterations < 1) throw new RangeError(`maxIterations must be an integer ≥ 1, got ${maxIterations}`);
-  let windowSize = options.windowSize ?? Math.max(20, 2 * states + 10);
-  if (!Number.isInteger(windowSize) || windowSize < states + 2) {
-    throw new RangeError(`windowSize must be an integer ≥ states + 2 (${states + 2}), got ${windowSize}`);
+  const requested = options.windowSize ?? Math.max(20, 2 * states + 10);
+  if (!Number.isInteger(requested) || requested < Math.min(states + 2, dimension)) {
+    throw new RangeError(`windowSize must be an integer ≥ states + 2 (${states + 2}), got ${requested}`);
   }
-  windowSize = Math.min(windowSize, dimension);
+  const windowSize = Math.min(requested, dimension);
   const seed = options.seed ?? 1;
   if (!Number.isInteger(seed)) throw new RangeError(`seed must be an integer, got ${seed}`);
   const restartKeep = Math.min(windowSize - 1, options.restartKeep ?? states + Math.floor((windowSize - states) / 4));
