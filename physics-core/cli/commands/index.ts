@@ -4,3 +4,9 @@ import type { Command } from 'commander';
 export type RegisterCommand = (program: Command) => void;
 
 export const commands: RegisterCommand[] = [];
+import { registerSweep } from './sweep.js';
+import { registerMerge } from './merge.js';
+import { registerSpotCheck } from './spot-check.js';
+import { registerExport } from './export.js';
+
+commands.push(registerSweep, registerMerge, registerSpotCheck, registerExport);

@@ -1,3 +1,4 @@
+import { CORE_VERSION } from '../index.js';
 import { describe, expect, it } from 'vitest';
 import fc from 'fast-check';
 import { chainSweep } from '../sweep/fake-solver.js';
@@ -32,7 +33,7 @@ function singleton(method: 'ed' | 'meanfield', r: Rec): PhaseMap {
   const source = { createdAt, finishedAt: createdAt, runtime, ...(r.author ? { author: r.author } : {}) };
   return {
     spec: 'phasewright.map/1',
-    id: mapIdentity(sweep),
+    id: mapIdentity(sweep, CORE_VERSION),
     sweep,
     points: { [r.key]: point(r) },
     provenance: { createdAt, finishedAt: createdAt, runtime, seeds: [7], coreVersion: '0.1.0', warnings: [`${r.key}: w${r.at % 3}`], sources: [source], ...(r.author ? { author: r.author } : {}) },

@@ -1,3 +1,4 @@
+import { CORE_VERSION } from '../index.js';
 import { describe, expect, it } from 'vitest';
 import { canonicalHash, hashModel, mapIdentity, pointSeed, sha256Hex } from './provenance.js';
 import { chainSweep } from '../sweep/fake-solver.js';
@@ -15,12 +16,12 @@ describe('hashing', () => {
 
   it('map identity ignores the sweep name and refinement settings but not physics', () => {
     const s = chainSweep();
-    const id = mapIdentity(s);
-    expect(mapIdentity({ ...s, name: 'other', refine: { maxDepth: 5, on: ['fidelity'] } })).toBe(id);
-    expect(mapIdentity({ ...s, solver: { tolerance: 1e-9 } })).not.toBe(id);
-    expect(mapIdentity({ ...s, seed: 8 })).not.toBe(id);
+    const id = mapIdentity(s, CORE_VERSION);
+    expect(mapIdentity({ ...s, name: 'other', refine: { maxDepth: 5, on: ['fidelity'] } }, CORE_VERSION)).toBe(id);
+    expect(mapIdentity({ ...s, solver: { tolerance: 1e-9 } }, CORE_VERSION)).not.toBe(id);
+    expect(mapIdentity({ ...s, seed: 8 }, CORE_VERSION)).not.toBe(id);
     expect(mapIdentity(s, '9.9.9')).not.toBe(id);
-    expect(mapIdentity({ ...s, model: { ...s.model, parameters: { ...s.model.parameters, J: 2 } } })).not.toBe(id);
+    expect(mapIdentity({ ...s, model: { ...s.model, parameters: { ...s.model.parameters, J: 2 } } }, CORE_VERSION)).not.toBe(id);
     expect(hashModel(s.model)).toMatch(/^[0-9a-f]{64}$/);
   });
 

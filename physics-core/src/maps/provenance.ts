@@ -5,7 +5,6 @@
 import { sha256 } from '@noble/hashes/sha2.js';
 import { bytesToHex, utf8ToBytes } from '@noble/hashes/utils.js';
 import type { ModelSpec } from '../model/types.js';
-import { CORE_VERSION } from '../index.js';
 import { canonicalJson } from './canonical-json.js';
 import type { SweepSpec } from '../sweep/spec.js';
 
@@ -29,7 +28,7 @@ export function hashModel(spec: ModelSpec): string {
 }
 
 /** The document whose hash is a map's identity (exported so that a reader can recompute it). */
-export function mapIdentityDocument(sweep: SweepSpec, coreVersion: string = CORE_VERSION): unknown {
+export function mapIdentityDocument(sweep: SweepSpec, coreVersion: string): unknown {
   return {
     identity: 'phasewright.map-identity/1',
     model: sweep.model,
@@ -46,10 +45,10 @@ export function mapIdentityDocument(sweep: SweepSpec, coreVersion: string = CORE
 
 /**
  * Identity of a map: SHA-256 of the canonical JSON of {model, sweep (axes, method, observables,
- * seed), solver options, core version}. The sweep's `name` and its `refine` block are left out:
+ * seed), solver options, core version} (pass `CORE_VERSION`). The sweep's `name` and its `refine` block are left out:
  * refinement only adds points to the same map, and a name is not physics.
  */
-export function mapIdentity(sweep: SweepSpec, coreVersion: string = CORE_VERSION): string {
+export function mapIdentity(sweep: SweepSpec, coreVersion: string): string {
   return canonicalHash(mapIdentityDocument(sweep, coreVersion));
 }
 

@@ -8,7 +8,7 @@
 import type { ModelSpec } from '../model/types.js';
 import type { Result } from '../result.js';
 import { RESULT_SPEC_ID } from '../result.js';
-import type { PointOutcome, PointRequest } from './run.js';
+import type { PointOutcome, PointRequest } from './segment.js';
 import type { SweepSpec } from './spec.js';
 
 /** Hardcore bosons on a periodic chain of L sites at half filling: −J hops and V n_i n_{i+1}. */
