@@ -11,9 +11,9 @@ import { defineConfig } from 'vitest/config';
  */
 const SOURCE_CONDITION = '@phasewright/source';
 
-/** Theme colour shared by the manifest, <meta name="theme-color"> and the header band. */
-const THEME_COLOR = '#12343b';
-const BACKGROUND_COLOR = '#f6f7f4';
+/** Theme colour shared by the manifest and <meta name="theme-color">: the paper of the header. */
+const THEME_COLOR = '#f5f1e8';
+const BACKGROUND_COLOR = '#f5f1e8';
 
 /** The API lives on the sync server; in dev and preview Vite forwards /api to it. */
 const apiProxy: Record<string, ProxyOptions> = {

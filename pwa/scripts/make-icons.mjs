@@ -9,7 +9,7 @@ const svg = await readFile(new URL('logo-mark.svg', `file://${publicDir}`), 'utf
 const svgDataUrl = `data:image/svg+xml;base64,${Buffer.from(svg).toString('base64')}`;
 
 /** Background of the maskable icon; the same colour as the logo's tile. */
-const TILE = '#12343b';
+const TILE = '#1d2640';
 
 const targets = [
   { file: 'icons/icon-192.png', size: 192, inset: 0, background: 'transparent' },

@@ -18,7 +18,7 @@ const NAV_ITEMS = [
 
 function navClass({ isActive }: { isActive: boolean }): string {
   return `rounded-md px-3 py-1.5 text-sm font-semibold transition-colors ${
-    isActive ? 'bg-white/15 text-white' : 'text-accent-100 hover:bg-white/10 hover:text-white'
+    isActive ? 'bg-ink-900 text-paper' : 'text-ink-800 hover:bg-ink-100 hover:text-ink-950'
   }`;
 }
 
@@ -56,7 +56,7 @@ export function AppShell({ children }: { children: ReactNode }) {
       >
         Skip to content
       </a>
-      <header className="bg-ink-900 text-white">
+      <header className="border-b-2 border-ink-900 bg-paper text-ink-900">
         <div className="mx-auto flex max-w-5xl flex-wrap items-center gap-x-6 gap-y-2 px-5 py-3">
           <NavLink to="/" className="flex items-center gap-2.5 rounded-md" aria-label="Phasewright, home">
             <LogoMark size={34} />

@@ -3,14 +3,14 @@ import type { ReactNode } from 'react';
 export type BadgeTone = 'good' | 'bad' | 'warn' | 'neutral';
 
 const toneClasses: Record<BadgeTone, string> = {
-  good: 'bg-accent-50 text-accent-700 ring-accent-300',
+  good: 'bg-good-50 text-good-700 ring-good-300',
   bad: 'bg-red-50 text-red-800 ring-red-300',
   warn: 'bg-amber-50 text-amber-900 ring-amber-300',
-  neutral: 'bg-slate-100 text-ink-800 ring-slate-300',
+  neutral: 'bg-ink-100 text-ink-800 ring-line',
 };
 
 const dotClasses: Record<BadgeTone, string> = {
-  good: 'bg-accent-600',
+  good: 'bg-good-600',
   bad: 'bg-red-600',
   warn: 'bg-amber-500',
   neutral: 'bg-ink-500',

@@ -3,7 +3,7 @@ import type { ReactNode } from 'react';
 export type NoticeTone = 'info' | 'warn' | 'error';
 
 const toneClasses: Record<NoticeTone, string> = {
-  info: 'border-accent-300 bg-accent-50 text-ink-900',
+  info: 'border-ink-500 bg-surface text-ink-900 ring-1 ring-line',
   warn: 'border-amber-300 bg-amber-50 text-amber-950',
   error: 'border-red-300 bg-red-50 text-red-950',
 };

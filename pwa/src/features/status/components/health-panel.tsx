@@ -154,7 +154,7 @@ export function HealthPanel() {
             Show the raw response
           </DisclosureButton>
           <DisclosurePanel>
-            <pre className="mt-2 overflow-x-auto rounded-lg bg-ink-950 p-4 text-xs text-accent-100">
+            <pre className="mt-2 overflow-x-auto rounded-lg bg-ink-950 p-4 text-xs text-paper">
               {JSON.stringify(data, null, 2)}
             </pre>
           </DisclosurePanel>
