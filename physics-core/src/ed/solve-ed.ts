@@ -140,8 +140,8 @@ export class EdSolver {
     const want = new Set(o.observables);
     const lattice = model.lattice;
     const extras: Record<string, unknown> = {};
-    let densities = new Float64Array(model.nSites);
-    let correlations = new Float64Array(0);
+    let densities: Float64Array = new Float64Array(model.nSites);
+    let correlations: Float64Array = new Float64Array(0);
     if (want.has('densities') || want.has('structure-factor') || want.has('one-body')) {
       const dc = densityCorrelations(manifold);
       densities = dc.densities;

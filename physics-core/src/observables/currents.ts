@@ -1,4 +1,5 @@
-import type { BondResult, CompiledModel } from '../model/types.js';
+import type { CompiledModel } from '../model/types.js';
+import type { BondResult } from '../result.js';
 import { bit, transitionExpectation, type StateManifold } from './manifold.js';
 
 /**

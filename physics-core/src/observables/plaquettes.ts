@@ -1,4 +1,5 @@
-import type { CompiledModel, PlaquetteResult } from '../model/types.js';
+import type { CompiledModel } from '../model/types.js';
+import type { PlaquetteResult } from '../result.js';
 import { bit, transitionExpectation, type StateManifold } from './manifold.js';
 import { pairKey, type PairCurrent } from './currents.js';
 
