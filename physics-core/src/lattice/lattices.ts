@@ -168,6 +168,8 @@ export interface BuildLatticeOptions {
   distinctPairs?: boolean;
   /** Twist angles (radians per axis), already evaluated; otherwise `spec.twist` (numbers, or expressions in `pi`). */
   twist?: number[];
+  /** Build the two-step paths (only conditional hops need them). @default true */
+  paths?: boolean;
   /** Largest number of sites accepted. @default 1_000_000 */
   maxSites?: number;
 }
@@ -292,7 +294,7 @@ export function buildLattice(spec: LatticeSpec, options: BuildLatticeOptions = {
     basis: cell.basis.map((b) => ({ ...b })),
     sites,
     bonds,
-    paths: buildPaths(sites, bonds, scale),
+    paths: options.paths === false ? [] : buildPaths(sites, bonds, scale),
     plaquettes: buildPlaquettes(sites, bonds, scale, planar),
     shellDistances: distances,
     momenta: clusterMomenta(cell.translations, size),

@@ -10,6 +10,7 @@
  *   class `legs` (default `nn`).
  * - onsite: every site.
  * Entries with amplitude exactly 0 are KEPT, so a sweep can re-weight a term's entries.
+ * `lattice.paths` is filled only when the model has a conditional-hop term (it is [] otherwise).
  *
  * Per-entry variables in the expressions:
  * - hop and interaction (one bond from → to): dx, dy = displacement from → to (unwrapped);
@@ -82,7 +83,14 @@ function evaluator(
     const v = evaluateReal(expr, base, path, '');
     return () => v;
   }
-  return (vars, where) => evaluateReal(expr, { ...base, ...vars }, path, where());
+  // One scope object per expression, updated in place: creating a fresh scope per entry makes
+  // mathjs evaluation about ten times slower.
+  const scope: Record<string, number> = { ...base };
+  for (const v of perEntry) scope[v] = 0;
+  return (vars, where) => {
+    for (const k in vars) scope[k] = vars[k];
+    return evaluateReal(expr, scope, path, where);
+  };
 }
 
 /**
@@ -99,7 +107,11 @@ export function compileModel(spec: ModelSpec, overrides: Record<string, number> 
     const path = `$.lattice.twist[${a}]`;
     return evaluateReal(compileExpression(t, Object.keys(base), path), base, path, '');
   });
-  const lattice = buildLattice(parsed.lattice, { shells: requiredShells(parsed.terms), twist });
+  const lattice = buildLattice(parsed.lattice, {
+    shells: requiredShells(parsed.terms),
+    twist,
+    paths: parsed.terms.some((t) => t.kind === 'conditional-hop'),
+  });
   const nSites = lattice.sites.length;
   const pc = parsed.particles;
   const nParticles = pc.count ?? Math.round((pc.filling ?? 0) * nSites);

@@ -168,7 +168,7 @@ export function checkExpression(src: unknown, scope: readonly string[]): Express
     if (!scope.includes(s)) problems.push(`unknown symbol '${s}' (in scope here: ${scope.join(', ') || 'nothing'})`);
   if (problems.length) return { ok: false, message: `in '${src}': ${problems.join('; ')}` };
   const code: EvalFunction = node.compile();
-  return { ok: true, expr: { source: src, symbols: [...symbols], run: (scope) => code.evaluate({ ...scope }) } };
+  return { ok: true, expr: { source: src, symbols: [...symbols], run: (scope) => code.evaluate(scope) } };
 }
 
 /** Compile or throw a SpecError at `path`. */
@@ -199,9 +199,16 @@ export function evaluateReal(
   expr: CompiledExpression,
   scope: Record<string, number>,
   path: string,
-  where: string,
+  where: string | (() => string),
 ): number {
   let raw: unknown;
+  try {
+    raw = expr.run(scope);
+  } catch {
+    raw = undefined;
+  }
+  if (typeof raw === 'number' && Number.isFinite(raw)) return raw; // fast path
+  if (typeof where === 'function') where = where();
   try {
     raw = expr.run(scope);
   } catch (e) {
