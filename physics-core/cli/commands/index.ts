@@ -8,5 +8,7 @@ import { registerSweep } from './sweep.js';
 import { registerMerge } from './merge.js';
 import { registerSpotCheck } from './spot-check.js';
 import { registerExport } from './export.js';
+import { registerSolve } from './solve.js';
 
 commands.push(registerSweep, registerMerge, registerSpotCheck, registerExport);
+commands.push(registerSolve);

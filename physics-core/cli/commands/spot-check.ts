@@ -41,6 +41,7 @@ export function samplePoints(map: PhaseMap, k: number, seed: number): string[] {
 export async function spotCheck(map: PhaseMap, keys: string[], tolerance: number, workers?: number): Promise<SpotCheckReport> {
   const context = {
     model: map.sweep.model,
+    axes: map.sweep.axes.map((a) => a.parameter),
     method: map.sweep.method,
     solver: map.sweep.solver ?? {},
     seed: map.sweep.seed ?? 0,

@@ -7,8 +7,8 @@
  *   indicator that also works in mean-field, where S(q) has no connected part between sites),
  *   `structureFactorMax` and its momentum `structureFactorMaxQx`, `structureFactorMaxQy`,
  *   `maxAbsCurrent`, `maxAbsCirculation`, `maxAbsChirality`;
- * - every finite number in `Result.extras` under its own name (e.g. `fidelitySusceptibility`),
- *   and every plain number list there;
+ * - every finite number in `Result.extras` under its own name (e.g. `fidelitySusceptibility`);
+ *   number lists in `extras` only when the sweep names them in `observables`;
  * - lists: `densities` (per site), `structureFactor` (rows [qx, qy, S(q)]), `condensate` (rows
  *   [re, im] per site, mean-field).
  */
@@ -24,7 +24,7 @@ function maxAbs(values: number[]): number {
 }
 
 /** All observables the map can keep for a Result (before filtering by the sweep's `observables`). */
-export function allObservables(result: Result): Record<string, ObservableValue> {
+export function allObservables(result: Result, extraLists: string[] = []): Record<string, ObservableValue> {
   const out: Record<string, ObservableValue> = {};
   out.energyPerSite = result.energyPerSite;
   if (finite(result.gap)) out.gap = result.gap;
@@ -54,14 +54,14 @@ export function allObservables(result: Result): Record<string, ObservableValue> 
   for (const [name, v] of Object.entries(result.extras ?? {})) {
     if (name in out) continue;
     if (finite(v)) out[name] = v;
-    else if (Array.isArray(v) && v.length > 0 && v.every(finite)) out[name] = [...v];
+    else if (extraLists.includes(name) && Array.isArray(v) && v.length > 0 && v.every(finite)) out[name] = [...v];
   }
   return out;
 }
 
 /** The observables to store: all of them, or those named in `keep` that the result has. */
 export function extractObservables(result: Result, keep?: string[]): Record<string, ObservableValue> {
-  const all = allObservables(result);
+  const all = allObservables(result, keep ?? []);
   if (!keep) return all;
   const out: Record<string, ObservableValue> = {};
   for (const name of keep) if (name in all) out[name] = all[name];

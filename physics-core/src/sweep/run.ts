@@ -135,6 +135,7 @@ export async function runSweep(sweep: SweepSpec, options: RunOptions): Promise<R
   }
   const context: SweepContext = {
     model: sweep.model,
+    axes: sweep.axes.map((a) => a.parameter),
     method: sweep.method,
     solver: sweep.solver ?? {},
     seed: sweep.seed ?? 0,

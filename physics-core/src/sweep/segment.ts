@@ -23,6 +23,8 @@ export interface PointRequest {
   /** This point's seed (derived from the sweep seed and the key). */
   seed: number;
   key: string;
+  /** The swept parameters in axis order (e.g. the fidelity susceptibility is taken along the first). */
+  axes: string[];
 }
 
 export interface PointOutcome {
@@ -39,6 +41,8 @@ export type PointSolver = (request: PointRequest, warm: unknown) => PointOutcome
 /** The sweep-wide context of a segment (plain data). */
 export interface SweepContext {
   model: ModelSpec;
+  /** Swept parameters in axis order. */
+  axes: string[];
   method: Method;
   solver: Record<string, unknown>;
   seed: number;
@@ -115,7 +119,7 @@ export async function runSegment(
     const t0 = now();
     try {
       const outcome = await solve(
-        { model: job.context.model, method: job.context.method, solver: job.context.solver, parameters: item.parameters, seed, key: item.key },
+        { model: job.context.model, method: job.context.method, solver: job.context.solver, parameters: item.parameters, seed, key: item.key, axes: job.context.axes },
         warm,
       );
       warm = outcome.warm;
