@@ -64,7 +64,8 @@ export function solveCommand(file: string, opts: SolveCommandOptions): string {
       : {}),
     ...(observables ? { observables: observables as EdObservable[] } : {}),
   };
-  const result = inFile(file, () => solve(spec, { method, overrides: parseOverrides(opts.set), ed }));
+  const overrides = parseOverrides(opts.set);
+  const result = inFile(file, () => solve(spec, { method, overrides, ed }));
   return JSON.stringify(result, null, opts.pretty ? 2 : undefined);
 }
 
