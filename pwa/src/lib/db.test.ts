@@ -54,7 +54,7 @@ describe('PhasewrightDb', () => {
     opened.push(db);
     const s1 = await db.outbox.add({ projectId: LOCAL_PROJECT_ID, entity: 'model', entityId: 'a', op: 'put', createdAt: 1 });
     const s2 = await db.outbox.add({ projectId: LOCAL_PROJECT_ID, entity: 'label', entityId: 'b', op: 'put', createdAt: 2 });
-    expect(s2).toBeGreaterThan(s1);
+    expect(Number(s2)).toBeGreaterThan(Number(s1));
   });
 
   it('upgrades a version-1 database: points gain their label and convergence fields and indexes', async () => {
