@@ -17,7 +17,7 @@ export {
   type BuildLatticeOptions,
 } from './lattice/lattices.js';
 export { solve, type SolveOptions } from './solve.js';
-export { solveEd, ED_OBSERVABLES, type EdOptions, type EdObservable } from './ed/solve-ed.js';
+export { solveEd, EdSolver, ED_OBSERVABLES, type EdOptions, type EdObservable, type EdSolution } from './ed/solve-ed.js';
 export { solveMeanField, type MeanFieldOptions, type MeanFieldWarmStart, type MeanFieldSolution } from './meanfield/gutzwiller.js';
 export * from './sweep/spec.js';
 export { planSweep, pointKey, axisValue, type Plan, type WorkItem, type PlanOptions } from './sweep/plan.js';
@@ -26,3 +26,4 @@ export { traceBoundaries, refineItems, keyAtCoords, type Boundary, type Boundary
 export { allObservables, extractObservables, structureFactorAt } from './sweep/observables.js';
 export * from './maps/map-format.js';
 export { mapIdentity, hashModel, canonicalHash, pointSeed } from './maps/provenance.js';
+export { solvePoint } from './sweep/solve-point.js';
