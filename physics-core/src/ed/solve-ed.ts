@@ -26,7 +26,7 @@ export interface EdOptions {
   tolerance?: number;
   /** Largest number of H·x products. @default 3000 */
   maxIterations?: number;
-  /** Lanczos basis vectors per restart window. @default max(20, 2·states + 10) */
+  /** Lanczos basis vectors per restart window. @default max(16, 2·states + 10) (see lanczos.ts) */
   windowSize?: number;
   /** Seed of the random start vector. @default 1 */
   seed?: number;
@@ -42,7 +42,10 @@ export interface EdOptions {
   observables?: readonly EdObservable[];
 }
 
-export type ResolvedEdOptions = Required<Omit<EdOptions, 'startVector'>> & { startVector: Float64Array | undefined };
+export type ResolvedEdOptions = Required<Omit<EdOptions, 'startVector' | 'windowSize'>> & {
+  startVector: Float64Array | undefined;
+  windowSize: number | undefined;
+};
 
 export function checkEdOptions(options: EdOptions = {}): ResolvedEdOptions {
   const states = options.states ?? 2;
@@ -57,7 +60,7 @@ export function checkEdOptions(options: EdOptions = {}): ResolvedEdOptions {
     states,
     tolerance: options.tolerance ?? 1e-10,
     maxIterations: options.maxIterations ?? 3000,
-    windowSize: options.windowSize ?? Math.max(20, 2 * states + 10),
+    windowSize: options.windowSize,
     seed: options.seed ?? 1,
     startVector: options.startVector,
     memoryBudgetBytes: op.memoryBudgetBytes,

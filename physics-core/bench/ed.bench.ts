@@ -1,0 +1,85 @@
+/**
+ * Exact-diagonalization benchmark (prints figures; no assertions):
+ * zigzag strip, half filling, plain hops between the legs (`zig`), conditional hops along the
+ * legs through the opposite site with phase turn·θ, nearest interactions, periodic.
+ *
+ *   npm run bench:ed [-- --sizes 16,20,24] [-- --compare]   (sizes count SITES; the cell holds two)
+ *
+ * --compare also times CSR against matrix-free products (and is skipped above 20 sites).
+ */
+import { compileModel } from '../src/model/compile.js';
+import type { ModelSpec } from '../src/model/types.js';
+import { EdOperator, estimateOperator } from '../src/operators/ed-operator.js';
+import { EdSolver } from '../src/ed/solve-ed.js';
+
+function spec(sites: number): ModelSpec {
+  return {
+    spec: 'phasewright.model/1',
+    name: `benchmark zigzag, ${sites} sites`,
+    lattice: { kind: 'zigzag', size: [sites / 2], boundary: ['periodic'], twist: [0] },
+    particles: { kind: 'hardcore', filling: 0.5 },
+    parameters: { J: 1, g: 0.5, theta: 'pi/2', V: 0.5 },
+    terms: [
+      { kind: 'hop', class: 'zig', amplitude: '-J' },
+      { kind: 'conditional-hop', class: 'leg', legs: 'zig', via: 'common-neighbor', when: 'empty', amplitude: '-g', phase: 'turn*theta' },
+      { kind: 'interaction', neighbors: 1, amplitude: 'V' },
+    ],
+  };
+}
+
+function arg(name: string): string | undefined {
+  const i = process.argv.indexOf(name);
+  return i >= 0 ? process.argv[i + 1] : undefined;
+}
+
+const sizes = (arg('--sizes') ?? '16,20,24').split(',').map(Number);
+const compare = process.argv.includes('--compare');
+const mb = (b: number): string => `${(b / 2 ** 20).toFixed(0)} MB`;
+const ms = (x: number): string => `${x.toFixed(0)} ms`;
+
+console.log(`node ${process.version}; one thread; load average ${(await import('node:os')).loadavg().map((x) => x.toFixed(1)).join(' ')}`);
+for (const L of sizes) {
+  if (!Number.isInteger(L) || L % 2 !== 0 || L < 4) throw new Error(`--sizes: ${L} is not an even number of sites ≥ 4`);
+  const model = compileModel(spec(L));
+  const est = estimateOperator(model);
+  const t0 = performance.now();
+  const cpu0 = process.cpuUsage();
+  const solver = new EdSolver({ states: 2, memoryBudgetBytes: 1.9 * 2 ** 30 });
+  const { result, operator } = solver.solve(model);
+  const total = performance.now() - t0;
+  const cpu = process.cpuUsage(cpu0);
+  const cpuMs = (cpu.user + cpu.system) / 1000;
+  const extras = result.extras as { timing: { operatorMs: number; lanczosMs: number; observablesMs: number }; restarts: number };
+  const x = new Float64Array(2 * operator.dimension).fill(0.5);
+  const y = new Float64Array(2 * operator.dimension);
+  operator.matvec(x, y);
+  const reps = L >= 24 ? 3 : 10;
+  let t = performance.now();
+  for (let r = 0; r < reps; r++) operator.matvec(x, y);
+  const matvec = (performance.now() - t) / reps;
+  const groundMs = extras.timing.operatorMs + extras.timing.lanczosMs;
+  console.log(
+    [
+      `L=${L}`,
+      `dim=${operator.dimension}`,
+      `nnz=${est.nnz}`,
+      `storage=${operator.storage} (${mb(operator.bytes)})`,
+      `build=${ms(extras.timing.operatorMs)}`,
+      `matvec=${matvec.toFixed(1)} ms (${((est.nnz + operator.dimension) / (matvec / 1000) / 1e6).toFixed(0)} M nonzeros/s)`,
+      `lanczos=${ms(extras.timing.lanczosMs)} (${result.convergence.iterations} H·x, ${extras.restarts} restarts, residual ${result.convergence.residual.toExponential(1)}, converged ${result.convergence.converged})`,
+      `ground state (build+Lanczos)=${ms(groundMs)}`,
+      `observables=${ms(extras.timing.observablesMs)}`,
+      `total=${ms(total)} wall, ${ms(cpuMs)} CPU (wall exceeds CPU when other processes share the cores)`,
+      `E0=${result.energy.toFixed(10)} gap=${result.gap?.toFixed(6)}`,
+      `peak RSS=${mb(process.resourceUsage().maxRSS * 1024)}`,
+    ].join('\n  '),
+  );
+  if (compare && L <= 20) {
+    const free = new EdOperator(model, { storage: 'matrix-free' });
+    free.matvec(x, y);
+    t = performance.now();
+    for (let r = 0; r < reps; r++) free.matvec(x, y);
+    const mf = (performance.now() - t) / reps;
+    console.log(`  matrix-free matvec=${mf.toFixed(1)} ms vs CSR ${matvec.toFixed(1)} ms (operator ${mb(free.bytes)} vs ${mb(operator.bytes)})`);
+  }
+}
