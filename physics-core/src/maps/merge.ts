@@ -122,7 +122,12 @@ export function mergeMaps(maps: PhaseMap[], options: MergeOptions = {}): PhaseMa
     }
   }
   const points: Record<string, MapPoint> = {};
-  for (const key of [...byKey.keys()].sort()) points[key] = mergePoints(byKey.get(key) as MapPoint[], method, options);
+  for (const key of [...byKey.keys()].sort()) {
+    const list = byKey.get(key) as MapPoint[];
+    const only = list[0];
+    // Fast path: a point found once, with no other results, is already in normal form.
+    points[key] = list.length === 1 && !only.disputed && !only.history ? only : mergePoints(list, method, options);
+  }
 
   const sources = sortedUnique(maps.flatMap((m) => m.provenance.sources), canonicalJson).sort(sourceOrder);
   const first = sources[0];
