@@ -8,7 +8,8 @@ import {
   estimateOperator,
   type OperatorStorage,
 } from '../operators/ed-operator.js';
-import { checkLanczosOptions, estimateLanczosBytes, lanczos } from '../eigen/lanczos.js';
+import { checkLanczosOptions, estimateLanczosBytes } from '../eigen/lanczos.js';
+import { lowestEigenpairs } from '../eigen/lowest-eigenpairs.js';
 import type { StateManifold } from '../observables/manifold.js';
 import { densityCorrelations } from '../observables/densities.js';
 import { structureFactor } from '../observables/structure-factor.js';
@@ -40,6 +41,8 @@ export interface EdOptions {
   degeneracyTolerance?: number;
   /** Observables to evaluate. @default all of ED_OBSERVABLES */
   observables?: readonly EdObservable[];
+  /** After convergence, look for missed degenerate copies with a deflated second run (eigen/lowest-eigenpairs.ts). @default true */
+  verifyDegeneracy?: boolean;
 }
 
 export type ResolvedEdOptions = Required<Omit<EdOptions, 'startVector' | 'windowSize'>> & {
@@ -67,6 +70,7 @@ export function checkEdOptions(options: EdOptions = {}): ResolvedEdOptions {
     storage: op.storage,
     degeneracyTolerance,
     observables,
+    verifyDegeneracy: options.verifyDegeneracy ?? true,
   };
 }
 
@@ -115,7 +119,11 @@ export class EdSolver {
 
     const solveStart = now();
     const start = o.startVector ?? (this.warmStart && !rebuilt && this.previous ? this.previous : undefined);
-    const eig = lanczos((x, y) => op.matvec(x, y), op.dimension, { ...lanczosOptions, startVector: start });
+    const eig = lowestEigenpairs((x, y) => op.matvec(x, y), op.dimension, {
+      ...lanczosOptions,
+      startVector: start,
+      verifyDegeneracy: o.verifyDegeneracy,
+    });
     const lanczosMs = now() - solveStart;
     const energies = eig.values;
     const e0 = energies[0];
@@ -181,6 +189,8 @@ export class EdSolver {
     extras.groundDegeneracy = g;
     extras.residuals = eig.residuals;
     extras.restarts = eig.restarts;
+    extras.verificationIterations = eig.verificationIterations;
+    extras.recoveredStates = eig.recovered;
     extras.timing = { operatorMs: op.buildMs, lanczosMs, observablesMs };
 
     const result: Result = {
@@ -209,6 +219,7 @@ export class EdSolver {
           seed: o.seed,
           warmStart: start !== undefined,
           degeneracyTolerance: o.degeneracyTolerance,
+          verifyDegeneracy: o.verifyDegeneracy,
         },
       },
       extras,

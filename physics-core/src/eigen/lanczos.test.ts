@@ -1,5 +1,6 @@
 import { describe, expect, it } from 'vitest';
 import { lanczos } from './lanczos.js';
+import { lowestEigenpairs } from './lowest-eigenpairs.js';
 import { dotc, norm2 } from './complex-vector.js';
 import { EdOperator } from '../operators/ed-operator.js';
 import { chainModel, denseFromMatvec, denseHermitianEigen, randomModel } from '../ed/test-models.js';
@@ -41,6 +42,17 @@ describe('thick-restart Lanczos', () => {
     const res = lanczos((x, y) => op.matvec(x, y), 6, { states: 6 });
     const exact = [0, 1, 2, 3, 4, 5].map((m) => -2 * Math.cos((2 * Math.PI * m) / 6)).sort((a, b) => a - b);
     for (let i = 0; i < 6; i++) expect(res.values[i]).toBeCloseTo(exact[i], 12);
+  });
+
+  it('lowestEigenpairs recovers a degenerate copy single-vector Lanczos misses (30-ring, 1 particle, twist π: −2cos((2m+1)π/30), each level twice)', () => {
+    const op = new EdOperator(chainModel({ L: 30, N: 1, periodic: true, twist: Math.PI }));
+    const exact = [-2 * Math.cos(Math.PI / 30), -2 * Math.cos(Math.PI / 30), -2 * Math.cos((3 * Math.PI) / 30)];
+    const res = lowestEigenpairs((x, y) => op.matvec(x, y), 30, { states: 3 });
+    expect(res.converged).toBe(true);
+    for (let i = 0; i < 3; i++) expect(res.values[i]).toBeCloseTo(exact[i], 11);
+    const h = new Float64Array(2);
+    dotc(res.vectors[0], res.vectors[1], h);
+    expect(Math.hypot(h[0], h[1])).toBeLessThan(1e-9);
   });
 
   it('is deterministic for a seed, and a warm start from the answer converges at once', () => {

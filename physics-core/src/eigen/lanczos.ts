@@ -27,6 +27,11 @@ export interface LanczosOptions {
   seed?: number;
   /** Start vector (warm start), interleaved complex; need not be normalized. */
   startVector?: Float64Array;
+  /**
+   * Orthonormal vectors to stay orthogonal to (deflation): the iteration then works with
+   * P H P, P = 1 − Σ|x⟩⟨x|, and finds the lowest eigenpairs of H in their complement.
+   */
+  locked?: Float64Array[];
   /** Ritz vectors kept at a restart (≥ states + 1, < windowSize). @default states + ⌊(windowSize − states)/4⌋ (fewer kept vectors make each restart cheaper; measured in bench/ed.bench.ts) */
   restartKeep?: number;
 }
@@ -47,19 +52,27 @@ export interface LanczosResult {
   normEstimate: number;
 }
 
-export function checkLanczosOptions(dimension: number, options: LanczosOptions = {}): Required<Omit<LanczosOptions, 'startVector'>> & { startVector: Float64Array | undefined } {
+export function checkLanczosOptions(
+  dimension: number,
+  options: LanczosOptions = {},
+): Required<Omit<LanczosOptions, 'startVector' | 'locked'>> & { startVector: Float64Array | undefined; locked: Float64Array[] } {
   const states = options.states ?? 2;
+  const locked = options.locked ?? [];
+  for (const x of locked) {
+    if (x.length !== 2 * dimension) throw new RangeError(`locked vector has length ${x.length}, expected ${2 * dimension}`);
+  }
+  const free = dimension - locked.length;
   if (!Number.isInteger(states) || states < 1) throw new RangeError(`states must be an integer ≥ 1, got ${states}`);
-  if (states > dimension) throw new RangeError(`states (${states}) exceeds the Hilbert-space dimension (${dimension})`);
+  if (states > free) throw new RangeError(`states (${states}) exceeds the Hilbert-space dimension (${free}${locked.length ? ' outside the locked vectors' : ''})`);
   const tolerance = options.tolerance ?? 1e-10;
   if (!(tolerance > 0 && tolerance < 1)) throw new RangeError(`tolerance must be in (0, 1), got ${tolerance}`);
   const maxIterations = options.maxIterations ?? 3000;
   if (!Number.isInteger(maxIterations) || maxIterations < 1) throw new RangeError(`maxIterations must be an integer ≥ 1, got ${maxIterations}`);
   const requested = options.windowSize ?? Math.max(16, 2 * states + 10);
-  if (!Number.isInteger(requested) || requested < Math.min(states + 2, dimension)) {
+  if (!Number.isInteger(requested) || requested < Math.min(states + 2, free)) {
     throw new RangeError(`windowSize must be an integer ≥ states + 2 (${states + 2}), got ${requested}`);
   }
-  const windowSize = Math.min(requested, dimension);
+  const windowSize = Math.min(requested, free);
   const seed = options.seed ?? 1;
   if (!Number.isInteger(seed)) throw new RangeError(`seed must be an integer, got ${seed}`);
   const restartKeep = Math.min(windowSize - 1, options.restartKeep ?? states + Math.floor((windowSize - states) / 4));
@@ -70,7 +83,7 @@ export function checkLanczosOptions(dimension: number, options: LanczosOptions =
   if (startVector && startVector.length !== 2 * dimension) {
     throw new RangeError(`startVector has length ${startVector.length}, expected ${2 * dimension} (interleaved complex)`);
   }
-  return { states, tolerance, maxIterations, windowSize, seed, startVector, restartKeep };
+  return { states, tolerance, maxIterations, windowSize, seed, startVector, restartKeep, locked };
 }
 
 /** Bytes of the vectors Lanczos allocates for a given dimension and window. */
@@ -102,11 +115,16 @@ export function lanczos(
   const h = new Float64Array(2);
   const hRe = new Float64Array(m + 1);
   const hIm = new Float64Array(m + 1);
+  const locked = opts.locked;
+  const lRe = new Float64Array(locked.length);
+  const lIm = new Float64Array(locked.length);
+  const free = dimension - locked.length;
 
   /** Orthogonalizes w against V[0..count−1] (one classical Gram–Schmidt pass, repeated if the norm drops a lot). */
   const orthogonalize = (w: Float64Array, count: number): number => {
     let before = norm2(w);
     for (let pass = 0; pass < 3; pass++) {
+      if (locked.length) projectOut(w, locked, locked.length, lRe, lIm);
       projectOut(w, V, count, hRe, hIm);
       const after = norm2(w);
       if (!Number.isFinite(after)) throw new Error('Lanczos: a vector became NaN or infinite (check the operator)');
@@ -120,11 +138,12 @@ export function lanczos(
   const v0 = vector(0);
   if (opts.startVector) v0.set(opts.startVector);
   else randomVector(v0);
-  let n0 = norm2(v0);
-  if (!Number.isFinite(n0)) throw new Error('Lanczos: start vector contains NaN or infinite entries');
-  if (n0 === 0) {
+  const startNorm = norm2(v0);
+  if (!Number.isFinite(startNorm)) throw new Error('Lanczos: start vector contains NaN or infinite entries');
+  let n0 = orthogonalize(v0, 0);
+  if (n0 <= 1e-8 * startNorm || n0 === 0) {
     randomVector(v0);
-    n0 = norm2(v0);
+    n0 = orthogonalize(v0, 0);
   }
   scale(v0, 1 / n0);
 
@@ -158,7 +177,7 @@ export function lanczos(
       j++;
       if (beta <= 1e-13 * Math.max(normEstimate, 1e-300)) {
         // Invariant subspace: continue with a random vector orthogonal to the basis (coupling 0).
-        if (j >= dimension) {
+        if (j >= free) {
           lastBeta = 0;
           break;
         }
@@ -190,7 +209,7 @@ export function lanczos(
     for (let i = 0; i < size; i++) normEstimate = Math.max(normEstimate, Math.abs(ritzValues[i]));
     const scaleH = Math.max(normEstimate, Number.MIN_VALUE);
     const want = Math.min(k, size);
-    let done = size >= dimension || size >= k;
+    let done = size >= free || size >= k;
     for (let i = 0; i < want && done; i++) {
       const est = Math.abs(lastBeta * ritzVectors[(size - 1) * size + i]);
       if (est > tolerance * scaleH) done = false;

@@ -1,0 +1,96 @@
+import { checkLanczosOptions, lanczos, type LanczosOptions, type LanczosResult } from './lanczos.js';
+
+/**
+ * Lowest eigenpairs with a check for missed degenerate copies.
+ *
+ * Single-vector Lanczos sees only the component of its start vector in each eigenspace, so a
+ * degenerate level appears once (in exact arithmetic) and the next distinct level takes the
+ * second slot: the gap would read as finite where it is zero. After the main run, a second
+ * Lanczos run with a fresh random start, kept orthogonal to the pairs found (deflation), looks
+ * for a state below the highest one found; if there is one, it is converged to full tolerance,
+ * swapped in, and the check repeats. The check stops at a looser tolerance (it only has to decide
+ * whether such a state exists), so it costs less than the main run.
+ */
+export interface LowestEigenpairsOptions extends LanczosOptions {
+  /** Look for missed degenerate copies after convergence. @default true */
+  verifyDegeneracy?: boolean;
+  /** Relative residual at which the check's Ritz value decides. @default max(tolerance, 1e-6) */
+  verifyTolerance?: number;
+}
+
+export interface LowestEigenpairsResult extends LanczosResult {
+  /** H·x products spent in the degeneracy check (included in `iterations`). */
+  verificationIterations: number;
+  /** Eigenpairs the check added (missed degenerate copies or levels). */
+  recovered: number;
+}
+
+export function lowestEigenpairs(
+  matvec: (x: Float64Array, y: Float64Array) => void,
+  dimension: number,
+  options: LowestEigenpairsOptions = {},
+): LowestEigenpairsResult {
+  const opts = checkLanczosOptions(dimension, options);
+  const verify = options.verifyDegeneracy ?? true;
+  const verifyTolerance = options.verifyTolerance ?? Math.max(opts.tolerance, 1e-6);
+  if (!(verifyTolerance > 0 && verifyTolerance < 1)) throw new RangeError(`verifyTolerance must be in (0, 1), got ${verifyTolerance}`);
+  const main = lanczos(matvec, dimension, options);
+  const k = main.values.length;
+  let verificationIterations = 0;
+  let recovered = 0;
+  if (!verify || k + (options.locked?.length ?? 0) >= dimension) {
+    return { ...main, verificationIterations, recovered };
+  }
+  let values = [...main.values];
+  let vectors = [...main.vectors];
+  let residuals = [...main.residuals];
+  let converged = main.converged;
+  let normEstimate = main.normEstimate;
+  const budget = (): number => Math.max(1, opts.maxIterations - main.iterations - verificationIterations);
+  for (let round = 0; round < k && k + (options.locked?.length ?? 0) < dimension; round++) {
+    const locked = [...(options.locked ?? []), ...vectors];
+    if (locked.length >= dimension) break;
+    const probe = lanczos(matvec, dimension, {
+      ...options,
+      states: 1,
+      locked,
+      startVector: undefined,
+      seed: opts.seed + 7919 * (round + 1),
+      tolerance: verifyTolerance,
+      maxIterations: budget(),
+    });
+    verificationIterations += probe.iterations;
+    normEstimate = Math.max(normEstimate, probe.normEstimate);
+    const highest = values[k - 1];
+    if (!(probe.values[0] < highest - opts.tolerance * normEstimate)) break;
+    // A state below the highest one found was missed: converge it fully and swap it in.
+    const refined =
+      verifyTolerance > opts.tolerance
+        ? lanczos(matvec, dimension, { ...options, states: 1, locked, startVector: probe.vectors[0], maxIterations: budget() })
+        : probe;
+    if (refined !== probe) verificationIterations += refined.iterations;
+    recovered++;
+    const merged = values
+      .map((value, i) => ({ value, vector: vectors[i], residual: residuals[i] }))
+      .concat([{ value: refined.values[0], vector: refined.vectors[0], residual: refined.residuals[0] }])
+      .sort((a, b) => a.value - b.value)
+      .slice(0, k);
+    values = merged.map((x) => x.value);
+    vectors = merged.map((x) => x.vector);
+    residuals = merged.map((x) => x.residual);
+    converged = converged && refined.converged;
+  }
+  const residual = residuals.reduce((a, b) => Math.max(a, b), 0);
+  return {
+    values,
+    vectors,
+    converged: converged && residual <= opts.tolerance,
+    iterations: main.iterations + verificationIterations,
+    restarts: main.restarts,
+    residuals,
+    residual,
+    normEstimate,
+    verificationIterations,
+    recovered,
+  };
+}
