@@ -1,5 +1,5 @@
 import { Command, CommanderError } from 'commander';
-import { CORE_VERSION } from '../src/index.js';
+import { CORE_VERSION } from '../src/version.js';
 import { PhasewrightError } from '../src/errors.js';
 import { commands } from './commands/index.js';
 

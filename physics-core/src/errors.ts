@@ -10,8 +10,10 @@ export class PhasewrightError extends Error {
     /** JSON path of the offending input, when there is one. */
     readonly path?: string,
     readonly details?: Record<string, unknown>,
+    /** Whether `message` already names the path (then it is not prefixed again). */
+    pathInMessage = false,
   ) {
-    super(path ? `${path}: ${message}` : message);
+    super(path && !pathInMessage ? `${path}: ${message}` : message);
     this.name = 'PhasewrightError';
   }
 }
@@ -24,6 +26,7 @@ export class SpecError extends PhasewrightError {
       'spec',
       issues[0]?.path,
       { issues },
+      true,
     );
     this.name = 'SpecError';
   }

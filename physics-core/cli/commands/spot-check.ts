@@ -6,7 +6,7 @@
  */
 import type { Command } from 'commander';
 import { PhasewrightError } from '../../src/errors.js';
-import { CORE_VERSION } from '../../src/index.js';
+import { CORE_VERSION } from '../../src/version.js';
 import type { MapPoint, PhaseMap } from '../../src/maps/map-format.js';
 import { parseMap } from '../../src/maps/map-format.js';
 import type { SegmentJob } from '../../src/sweep/run.js';

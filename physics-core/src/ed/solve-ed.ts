@@ -1,6 +1,6 @@
 import type { CompiledModel } from '../model/types.js';
 import { RESULT_SPEC_ID, type Result, type SiteResult } from '../result.js';
-import { CORE_VERSION } from '../index.js';
+import { CORE_VERSION } from '../version.js';
 import {
   EdOperator,
   checkEdOperatorOptions,

@@ -1,4 +1,4 @@
-import { CORE_VERSION } from '../index.js';
+import { CORE_VERSION } from '../version.js';
 import { describe, expect, it } from 'vitest';
 import fc from 'fast-check';
 import { chainSweep } from '../sweep/fake-solver.js';

@@ -1,4 +1,4 @@
-import { CORE_VERSION } from '../index.js';
+import { CORE_VERSION } from '../version.js';
 import { describe, expect, it } from 'vitest';
 import { canonicalHash, hashModel, mapIdentity, pointSeed, sha256Hex } from './provenance.js';
 import { chainSweep } from '../sweep/fake-solver.js';

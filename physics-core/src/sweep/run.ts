@@ -6,7 +6,7 @@
  * (physics-core/cli) and the PWA's web-worker pool.
  */
 import { PhasewrightError } from '../errors.js';
-import { CORE_VERSION } from '../index.js';
+import { CORE_VERSION } from '../version.js';
 import type { MapPoint, PhaseMap, RuntimeInfo } from '../maps/map-format.js';
 import { MAP_SPEC_ID } from '../maps/map-format.js';
 import { mergePoints } from '../maps/merge.js';
