@@ -41,23 +41,40 @@ function fromError(suite, err) {
   tally.add(suite, 0, 1, 0, message.split('\n')[0].slice(0, 100));
 }
 
+/** Run jobs at most `limit` at a time; each prints its buffered output when it ends. */
+async function pool(jobs, limit) {
+  const queue = [...jobs];
+  const workers = Array.from({ length: Math.min(limit, queue.length) }, async () => {
+    while (queue.length) await queue.shift()();
+  });
+  await Promise.all(workers);
+}
+
+/** A check that counts as one: passed when the command exits 0. Output is shown when it ends. */
+function checkJob(name, cmd, args) {
+  return async () => {
+    const t0 = Date.now();
+    const r = await run(cmd, args, { capture: true });
+    const out = `${r.stdout}${r.stderr}`.trim();
+    process.stdout.write(`--- ${name}: ${r.code === 0 ? 'ok' : 'FAILED'} (${((Date.now() - t0) / 1000).toFixed(1)} s)\n`);
+    if (r.code !== 0 && out) process.stdout.write(`${out}\n`);
+    tally.add(name, r.code === 0 ? 1 : 0, r.code === 0 ? 0 : 1, 0, undefined, (Date.now() - t0) / 1000);
+  };
+}
+
 async function lint() {
-  heading('lint');
+  heading('lint and type checks');
   const hasEslintConfig = ['eslint.config.js', 'eslint.config.mjs', 'eslint.config.cjs', 'eslint.config.ts'].some((f) =>
     fs.existsSync(path.join(repoRoot, f)),
   );
-  if (hasEslintConfig) {
-    const r = await run('npx', ['eslint', '.']);
-    tally.add('eslint', r.code === 0 ? 1 : 0, r.code === 0 ? 0 : 1);
-  } else {
-    info('no eslint.config.* at the root: eslint skipped');
-  }
+  const jobs = [];
+  if (hasEslintConfig) jobs.push(checkJob('eslint', 'npx', ['eslint', '.']));
+  else info('no eslint.config.* at the root: eslint skipped');
   for (const ws of WORKSPACES) {
-    if (!workspaceScripts(ws).typecheck) continue;
-    tally.mark();
-    const r = await run(npmCmd, ['run', 'typecheck', '-w', ws]);
-    tally.add(`typecheck ${ws}`, r.code === 0 ? 1 : 0, r.code === 0 ? 0 : 1);
+    if (workspaceScripts(ws).typecheck) jobs.push(checkJob(`typecheck ${ws}`, npmCmd, ['run', 'typecheck', '-w', ws]));
   }
+  // Two at a time: the machines this runs on have two cores or more.
+  await pool(jobs, 2);
 }
 
 async function vitest(ws) {
@@ -84,12 +101,7 @@ async function serverTests(settings, env) {
 
 async function browserTests(settings, env) {
   const runner = path.join(repoRoot, 'scripts', 'e2e', 'run.mjs');
-  if (!fs.existsSync(runner)) {
-    info('scripts/e2e/run.mjs not found: browser tests skipped');
-    return;
-  }
   heading('browser tests (Chromium)');
-  await ensureChromium();
   // A throw-away database for the server under test, migrated and seeded like `npm start`.
   const e2eDb = { ...settings, database: `${settings.database}_e2e_${process.pid}` };
   await rootSql(`CREATE DATABASE IF NOT EXISTS \`${e2eDb.database}\` CHARACTER SET utf8mb4 COLLATE utf8mb4_unicode_ci`);
@@ -142,6 +154,21 @@ runMain(async () => {
   await ensureNodeModules();
   fs.mkdirSync(reportsDir, { recursive: true });
 
+  // The database and Chromium (apt-get installs on a new machine, one after the other since apt
+  // holds a lock) get ready in the background while the CPU-bound checks run.
+  const hasBrowserTests = fs.existsSync(path.join(repoRoot, 'scripts', 'e2e', 'run.mjs'));
+  const dbReady = startDatabase({ autoPort: true }).then(
+    (db) => {
+      if (db.startedHere) cleanups.push(() => stopDatabase());
+      return db;
+    },
+    (err) => ({ err }),
+  );
+  const chromiumReady = dbReady.then(() => (hasBrowserTests ? ensureChromium() : undefined)).then(
+    () => null,
+    (err) => err,
+  );
+
   await lint();
   await vitest('physics-core');
   await vitest('pwa');
@@ -149,22 +176,23 @@ runMain(async () => {
   let built = true;
   heading('build (physics-core, pwa, sync-server)');
   try {
-    await buildWorkspaces(WORKSPACES);
+    // The PWA reads physics-core from source; the server's build needs physics-core's dist.
+    const results = await Promise.allSettled([
+      buildWorkspaces(['pwa']),
+      buildWorkspaces(['physics-core', 'sync-server']),
+    ]);
+    for (const r of results) if (r.status === 'rejected') throw r.reason;
   } catch (err) {
     built = false;
     fromError('build', err);
   }
 
-  let db = null;
-  try {
-    heading('private MariaDB');
-    db = await startDatabase({ autoPort: true });
-    if (db.startedHere) cleanups.push(() => stopDatabase());
-  } catch (err) {
-    fromError('database', err);
-  }
-  if (db) {
+  heading('private MariaDB');
+  const db = await dbReady;
+  if (db.err) fromError('database', db.err);
+  else {
     const s = db.settings;
+    info(`tests use the database server on 127.0.0.1:${s.port}`);
     const env = {
       ...process.env,
       PW_DB_HOST: '127.0.0.1',
@@ -174,14 +202,16 @@ runMain(async () => {
       PW_DB_PASSWORD: s.password,
     };
     await serverTests(s, env);
-    if (built) {
+    const chromiumError = await chromiumReady;
+    if (!hasBrowserTests) info('scripts/e2e/run.mjs not found: browser tests skipped');
+    else if (!built) fromError('browser (e2e)', new ScriptError('not run: the build failed'));
+    else if (chromiumError) fromError('browser (e2e)', chromiumError);
+    else {
       try {
         await browserTests(s, env);
       } catch (err) {
         fromError('browser (e2e)', err);
       }
-    } else {
-      info('browser tests skipped: the build failed');
     }
   }
 

@@ -8,9 +8,10 @@ export class Tally {
     this.lastMark = Date.now();
   }
 
-  add(suite, passed, failed, skipped = 0, note = undefined) {
+  /** `seconds` defaults to the time since the previous row or mark (pass it for parallel jobs). */
+  add(suite, passed, failed, skipped = 0, note = undefined, seconds = undefined) {
     const now = Date.now();
-    this.rows.push({ suite, passed, failed, skipped, note, seconds: (now - this.lastMark) / 1000 });
+    this.rows.push({ suite, passed, failed, skipped, note, seconds: seconds ?? (now - this.lastMark) / 1000 });
     this.lastMark = now;
   }
 
