@@ -13,6 +13,8 @@ export const routes: RouteObject[] = [
     children: [
       { index: true, lazy: () => import('./routes/home.js') },
       { path: 'status', lazy: () => import('./routes/status.js') },
+      { path: 'models/new', lazy: () => import('./routes/model-edit.js') },
+      { path: 'models/:id', lazy: () => import('./routes/model-edit.js') },
       { path: '*', lazy: () => import('./routes/not-found.js') },
     ],
   },
