@@ -3,11 +3,11 @@
 // foreground. Safe to re-run: nothing is re-initialised, no data is lost, finished builds are skipped.
 //   install deps → private MariaDB → migrate → seed demo → build → serve on http://127.0.0.1:8080
 // Ctrl-C or SIGTERM stops the server, then the database (when this command started it).
-import { buildWorkspaces } from './lib/build.mjs';
+import { buildAll } from './lib/build.mjs';
 import { startDatabase, stopDatabase } from './lib/db.mjs';
 import { dbTask } from './lib/db-tasks.mjs';
 import { ensureNodeModules } from './lib/deps.mjs';
-import { fail, info, runMain, ScriptError } from './lib/log.mjs';
+import { fail, info, onParentExit, runMain, ScriptError } from './lib/log.mjs';
 import { canBind, portFromEnv } from './lib/ports.mjs';
 import { startServer } from './lib/server.mjs';
 
@@ -44,13 +44,15 @@ runMain(async () => {
   };
   process.on('SIGINT', () => void shutdown('SIGINT'));
   process.on('SIGTERM', () => void shutdown('SIGTERM'));
+  process.on('SIGHUP', () => void shutdown('SIGHUP'));
+  onParentExit(() => void shutdown('npm was stopped'));
 
   try {
     const { applied } = await dbTask('migrate', settings);
     info(applied.length ? `migrations applied: ${applied.join(', ')}` : 'database schema is up to date');
     const seed = await dbTask('seed', settings);
 
-    await buildWorkspaces(['physics-core', 'pwa', 'sync-server']);
+    await buildAll();
 
     server = await startServer({ port, env: { PW_DB_HOST: '127.0.0.1', PW_DB_PORT: String(settings.port), PW_DB_NAME: settings.database, PW_DB_USER: settings.user, PW_DB_PASSWORD: settings.password } });
     server.exited.then((exit) => {

@@ -8,12 +8,12 @@
 // Exits non-zero when anything failed. Lint and type checks count one each; other suites count tests.
 import fs from 'node:fs';
 import path from 'node:path';
-import { buildWorkspaces } from './lib/build.mjs';
+import { buildAll } from './lib/build.mjs';
 import { ensureChromium } from './lib/chromium.mjs';
 import { rootSql, startDatabase, stopDatabase } from './lib/db.mjs';
 import { dbTask } from './lib/db-tasks.mjs';
 import { ensureNodeModules } from './lib/deps.mjs';
-import { info, runMain, ScriptError } from './lib/log.mjs';
+import { info, onParentExit, runMain, ScriptError } from './lib/log.mjs';
 import { dataDir, repoRoot } from './lib/paths.mjs';
 import { freePort } from './lib/ports.mjs';
 import { npmCmd, run } from './lib/proc.mjs';
@@ -142,12 +142,12 @@ async function cleanUp() {
   }
 }
 
-for (const signal of ['SIGINT', 'SIGTERM']) {
-  process.on(signal, () => {
-    process.stderr.write(`\n[phasewright] ${signal}: cleaning up…\n`);
-    void cleanUp().then(() => process.exit(130));
-  });
-}
+const interrupt = (why) => {
+  process.stderr.write(`\n[phasewright] ${why}: cleaning up…\n`);
+  void cleanUp().then(() => process.exit(130));
+};
+for (const signal of ['SIGINT', 'SIGTERM', 'SIGHUP']) process.on(signal, () => interrupt(signal));
+onParentExit(() => interrupt('npm was stopped'));
 
 runMain(async () => {
   const t0 = Date.now();
@@ -176,12 +176,7 @@ runMain(async () => {
   let built = true;
   heading('build (physics-core, pwa, sync-server)');
   try {
-    // The PWA reads physics-core from source; the server's build needs physics-core's dist.
-    const results = await Promise.allSettled([
-      buildWorkspaces(['pwa']),
-      buildWorkspaces(['physics-core', 'sync-server']),
-    ]);
-    for (const r of results) if (r.status === 'rejected') throw r.reason;
+    await buildAll();
   } catch (err) {
     built = false;
     fromError('build', err);

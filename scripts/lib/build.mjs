@@ -73,3 +73,12 @@ export async function buildWorkspaces(names = ['physics-core', 'pwa', 'sync-serv
     info(`built ${name} in ${((Date.now() - t0) / 1000).toFixed(1)} s`);
   }
 }
+
+/** physics-core then sync-server (it needs physics-core's dist), and beside them the PWA (it reads physics-core's source). */
+export async function buildAll() {
+  const results = await Promise.allSettled([
+    buildWorkspaces(['pwa']),
+    buildWorkspaces(['physics-core', 'sync-server']),
+  ]);
+  for (const r of results) if (r.status === 'rejected') throw r.reason;
+}

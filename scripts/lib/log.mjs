@@ -29,3 +29,18 @@ export function fail(error) {
 export function runMain(main) {
   main().catch(fail);
 }
+
+/**
+ * Call `cb` once when this process's parent goes away. `npm start` runs us through `sh -c`; a
+ * SIGTERM sent to npm ends npm and sh but is not passed on to us, so we watch for that.
+ */
+export function onParentExit(cb) {
+  const parent = process.ppid;
+  const timer = setInterval(() => {
+    if (process.ppid !== parent) {
+      clearInterval(timer);
+      cb();
+    }
+  }, 500);
+  timer.unref();
+}
