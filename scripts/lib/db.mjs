@@ -250,6 +250,8 @@ export async function startDatabase(opts = {}) {
   await initialiseDataDir();
   fs.rmSync(dbSocket, { force: true });
   fs.rmSync(dbPidFile, { force: true });
+  // One log per start (the previous one kept as error.log.1), so a failure shows its own lines.
+  if (fs.existsSync(dbErrorLog)) fs.renameSync(dbErrorLog, `${dbErrorLog}.1`);
 
   const mariadbd = findBinary('mariadbd') ?? 'mariadbd';
   const child = spawn(
