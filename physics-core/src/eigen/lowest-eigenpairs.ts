@@ -14,7 +14,7 @@ import { checkLanczosOptions, lanczos, type LanczosOptions, type LanczosResult }
 export interface LowestEigenpairsOptions extends LanczosOptions {
   /** Look for missed degenerate copies after convergence. @default true */
   verifyDegeneracy?: boolean;
-  /** Relative residual at which the check's Ritz value decides. @default max(tolerance, 1e-6) */
+  /** Relative residual at which the check's Ritz value decides. @default max(tolerance, 1e-5) (measured: 1e-6 costs ~15% more H·x) */
   verifyTolerance?: number;
 }
 
@@ -32,7 +32,7 @@ export function lowestEigenpairs(
 ): LowestEigenpairsResult {
   const opts = checkLanczosOptions(dimension, options);
   const verify = options.verifyDegeneracy ?? true;
-  const verifyTolerance = options.verifyTolerance ?? Math.max(opts.tolerance, 1e-6);
+  const verifyTolerance = options.verifyTolerance ?? Math.max(opts.tolerance, 1e-5);
   if (!(verifyTolerance > 0 && verifyTolerance < 1)) throw new RangeError(`verifyTolerance must be in (0, 1), got ${verifyTolerance}`);
   const main = lanczos(matvec, dimension, options);
   const k = main.values.length;
