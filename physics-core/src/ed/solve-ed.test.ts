@@ -135,6 +135,13 @@ describe('exact diagonalization against exact results', () => {
     expect(one.condensateFraction).toBeCloseTo(1, 10);
   });
 
+  it('an empty or full lattice (dimension 1) gives its single state without error', () => {
+    const r = solveEd(chainModel({ L: 5, N: 5, V: 0.5, periodic: true }));
+    expect(r.energies).toHaveLength(1);
+    expect(r.energy).toBeCloseTo(2.5, 12);
+    expect(r.gap).toBeNull();
+  });
+
   it('dispatcher fills the model hash; EdSolver re-weights its operator along a sweep', () => {
     const spec = chainSpec(8, { periodic: true, N: 4, V: 1 });
     const r = solve(spec, { overrides: { V: 0.5 } });

@@ -102,13 +102,19 @@ export class EdSolver {
   solve(model: CompiledModel): EdSolution {
     const o = this.options;
     const buildStart = now();
-    const lanczosOptions = checkLanczosOptions(
-      binomialDimension(model),
-      { states: o.states, tolerance: o.tolerance, maxIterations: o.maxIterations, windowSize: o.windowSize, seed: o.seed, startVector: o.startVector },
-    );
     const dimension = binomialDimension(model);
+    // A Hilbert space smaller than the requested number of states (e.g. N = 0) gives all its states.
+    const states = Math.min(o.states, dimension);
+    const lanczosOptions = checkLanczosOptions(dimension, {
+      states,
+      tolerance: o.tolerance,
+      maxIterations: o.maxIterations,
+      windowSize: o.windowSize,
+      seed: o.seed,
+      startVector: o.startVector,
+    });
     // Memory check before anything is allocated.
-    const reserved = estimateLanczosBytes(dimension, lanczosOptions.windowSize, o.states);
+    const reserved = estimateLanczosBytes(dimension, lanczosOptions.windowSize, states);
     const operatorOptions = { storage: o.storage, memoryBudgetBytes: o.memoryBudgetBytes, reservedBytes: reserved };
     chooseStorage(estimateOperator(model), checkEdOperatorOptions(operatorOptions));
     let rebuilt = true;

@@ -89,7 +89,9 @@ export function checkLanczosOptions(
 /** Bytes of the vectors Lanczos allocates for a given dimension and window. */
 export function estimateLanczosBytes(dimension: number, windowSize: number, states: number): number {
   const w = Math.min(windowSize, dimension);
-  return 16 * dimension * (w + 2 + states);
+  // window + 1 Lanczos vectors, the wanted Ritz vectors, a work vector, and (degeneracy check
+  // in lowest-eigenpairs.ts) the probe's own Ritz vector and one vector of slack.
+  return 16 * dimension * (w + 4 + states);
 }
 
 export function lanczos(
