@@ -26,8 +26,9 @@ import { mulberry32 } from '../util/random.js';
 import { supercellEnergy } from './energy.js';
 import { lbfgs, type LbfgsOptions } from './lbfgs.js';
 import { hardcoreSiteSpace, type SiteSpace } from './site-space.js';
-import { supercellMomenta, type Supercell, type SupercellSpec } from './supercell.js';
+import { reciprocal, supercellMomenta, type Supercell, type SupercellSpec } from './supercell.js';
 import { buildSupercellModel, type SupercellModel } from './supercell-model.js';
+import { parameterValues, reweightSupercellModel, termEvaluators, type TermEvaluators } from './reweight.js';
 import { meanFieldObservables } from './observables.js';
 
 export interface MeanFieldOptions {
@@ -118,10 +119,16 @@ export interface MeanFieldProblem {
   filling: number;
   /** Phase per unit-cell step along each axis (from the spec's twist). */
   twistPerCell: number[];
+  /**
+   * The periodic cluster the supercell was cut from. Cached per model structure: use it for
+   * geometry only — its entry values belong to the first parameter values seen.
+   */
   compiled: CompiledModel;
   warnings: string[];
   /** Allowed ordering vectors of the supercell (Cartesian). */
   momenta: number[][];
+  /** Momenta at which S(q) is reported (see structureMomenta). */
+  structureMomenta: number[][];
 }
 
 /**
@@ -130,23 +137,91 @@ export interface MeanFieldProblem {
  */
 export function prepareMeanField(spec: ModelSpec, options: MeanFieldOptions = {}, overrides: Record<string, number> = {}): MeanFieldProblem {
   const o = checkMeanFieldOptions(options);
-  const warnings: string[] = [];
-  const { compiled, supercell } = compileOnSupercellCluster(spec, o.supercell, o.clusterCells, overrides);
-  const translations = compiled.lattice.translations;
-  const dim = translations.length;
+  const structure = cachedStructure(spec, o, overrides);
+  const values = parameterValues(spec, overrides);
+  const dim = structure.supercell.dim;
   const userSize = spec.lattice.size;
-  const twist = (spec.lattice.twist ?? []).map((t, a) => evaluateConstant(t, compiled.parameters, `$.lattice.twist[${a}]`));
+  const twist = (spec.lattice.twist ?? []).map((t, a) => evaluateConstant(t, values, `$.lattice.twist[${a}]`));
   const twistPerCell = new Array<number>(dim).fill(0).map((_, a) => (spec.lattice.boundary[a] === 'periodic' ? (twist[a] ?? 0) / userSize[a] : 0));
+  const model = reweightSupercellModel(structure.model, structure.compiled, structure.evaluators.build(values), twistPerCell);
+  const warnings = [...structure.warnings];
   if (spec.lattice.boundary.some((b) => b === 'open')) {
     warnings.push('open boundaries are ignored by mean-field: the product state is periodic on the supercell of an infinite lattice');
   }
-  const model = buildSupercellModel(compiled, supercell, twistPerCell);
-  const periodic = checkPeriodicity(compiled, model);
-  if (periodic) warnings.push(periodic);
-  const nUser = userSize.reduce((p, q) => p * q, 1) * compiled.lattice.basis.length;
+  const nUser = userSize.reduce((p, q) => p * q, 1) * structure.compiled.lattice.basis.length;
   const particles = spec.particles;
   const filling = particles.count !== undefined ? particles.count / nUser : (particles.filling ?? 0);
-  return { model, supercell, filling, twistPerCell, compiled, warnings, momenta: supercellMomenta(supercell, translations) };
+  return {
+    model,
+    supercell: structure.supercell,
+    filling,
+    twistPerCell,
+    compiled: structure.compiled,
+    warnings,
+    momenta: structure.momenta,
+    structureMomenta: structure.structureMomenta,
+  };
+}
+
+interface Structure {
+  compiled: CompiledModel;
+  supercell: Supercell;
+  model: SupercellModel;
+  evaluators: TermEvaluators;
+  momenta: number[][];
+  structureMomenta: number[][];
+  warnings: string[];
+}
+
+/** Structures (cluster geometry, entry selection, compiled expressions) by what they depend on. */
+const structures = new Map<string, Structure>();
+const MAX_STRUCTURES = 16;
+
+function cachedStructure(spec: ModelSpec, o: Resolved, overrides: Record<string, number>): Structure {
+  const key = JSON.stringify([spec.lattice.kind, spec.lattice.custom ?? null, spec.lattice.size, spec.particles, spec.terms, Object.keys(spec.parameters), o.supercell ?? null, o.clusterCells]);
+  const hit = structures.get(key);
+  if (hit) {
+    structures.delete(key);
+    structures.set(key, hit);
+    return hit;
+  }
+  const { compiled, supercell } = compileOnSupercellCluster(spec, o.supercell, o.clusterCells, overrides);
+  const translations = compiled.lattice.translations;
+  const model = buildSupercellModel(compiled, supercell, new Array<number>(supercell.dim).fill(0));
+  const warnings: string[] = [];
+  const periodic = checkPeriodicity(compiled, model);
+  if (periodic) warnings.push(periodic);
+  const structure: Structure = {
+    compiled,
+    supercell,
+    model,
+    evaluators: termEvaluators(spec),
+    momenta: supercellMomenta(supercell, translations),
+    structureMomenta: structureMomenta(supercell, translations, compiled.lattice.basis.length),
+    warnings,
+  };
+  structures.set(key, structure);
+  if (structures.size > MAX_STRUCTURES) structures.delete(structures.keys().next().value as string);
+  return structure;
+}
+
+/**
+ * Momenta for S(q): the supercell's allowed momenta, and with a multi-site basis also their
+ * images shifted by the first reciprocal vectors (sublattice order, e.g. the honeycomb
+ * charge-density wave, appears only there).
+ */
+function structureMomenta(supercell: Supercell, translations: number[][], nBasis: number): number[][] {
+  const base = supercellMomenta(supercell, translations);
+  if (nBasis === 1) return base;
+  const G = reciprocal(translations);
+  const shifts = G.length === 1 ? [[-1], [0], [1]] : [-1, 0, 1].flatMap((a) => [-1, 0, 1].map((b) => [a, b]));
+  const out: number[][] = [];
+  for (const sh of shifts) {
+    for (const q of base) {
+      out.push([q[0] + sh.reduce((s, c, a) => s + c * G[a][0], 0), q[1] + sh.reduce((s, c, a) => s + c * G[a][1], 0)]);
+    }
+  }
+  return out;
 }
 
 /** Returns a warning when the compiled entries are not periodic under the supercell translations. */
@@ -215,7 +290,7 @@ interface Candidate {
 }
 
 /** Start states (see the module comment). */
-export function startStates(problem: MeanFieldProblem, o: Resolved, space: SiteSpace = hardcoreSiteSpace): { label: string; x: Float64Array }[] {
+function startStates(problem: MeanFieldProblem, o: Resolved, space: SiteSpace = hardcoreSiteSpace): { label: string; x: Float64Array }[] {
   const { model } = problem;
   const n = model.nSites;
   const np = space.paramsPerSite * n;
@@ -257,6 +332,11 @@ export function startStates(problem: MeanFieldProblem, o: Resolved, space: SiteS
   return out;
 }
 
+/** Minimises a prepared problem (all starts; μ search unless `options.mu` is set). */
+export function minimiseMeanField(problem: MeanFieldProblem, options: MeanFieldOptions = {}): MinimiseOutcome {
+  return minimiseProblem(problem, checkMeanFieldOptions(options));
+}
+
 function minimiseProblem(problem: MeanFieldProblem, o: Resolved, space: SiteSpace = hardcoreSiteSpace): MinimiseOutcome {
   const { model } = problem;
   const n = model.nSites;
@@ -280,19 +360,23 @@ function minimiseProblem(problem: MeanFieldProblem, o: Resolved, space: SiteSpac
     label: s.label, origin: s.x, x: Float64Array.from(s.x), omega: Infinity, density: 0, converged: false, iterations: 0, gradientNorm: Infinity,
   }));
   let totalIterations = 0;
-  const runAll = (muValue: number): Candidate => {
+  const runOne = (c: Candidate, muValue: number): Candidate => {
     mu = muValue;
+    if (isPolarised(c.x, space, n)) c.x.set(c.origin);
+    const r = lbfgs(objective, c.x, o.lbfgs);
+    c.x.set(r.x);
+    c.omega = r.f;
+    c.density = densityOf(r.x);
+    c.converged = r.converged;
+    c.iterations = r.iterations;
+    c.gradientNorm = r.gradientNorm;
+    totalIterations += r.iterations;
+    return c;
+  };
+  const runAll = (muValue: number): Candidate => {
     let best = candidates[0];
     for (const c of candidates) {
-      if (isPolarised(c.x, space, n)) c.x.set(c.origin);
-      const r = lbfgs(objective, c.x, o.lbfgs);
-      c.x.set(r.x);
-      c.omega = r.f;
-      c.density = densityOf(r.x);
-      c.converged = r.converged;
-      c.iterations = r.iterations;
-      c.gradientNorm = r.gradientNorm;
-      totalIterations += r.iterations;
+      runOne(c, muValue);
       if (c.omega < best.omega) best = c;
     }
     return best;
@@ -308,10 +392,36 @@ function minimiseProblem(problem: MeanFieldProblem, o: Resolved, space: SiteSpac
     if (f <= 0 || f >= 1) {
       best = runAll(f <= 0 ? -bound : bound);
     } else {
-      const search = findMu(runAll, f, o, problem, bound);
-      best = search.best;
-      muSteps = search.steps;
-      if (search.warning) warnings.push(search.warning);
+      // Follow the lowest start alone through the μ search, then check all starts at the μ found;
+      // if another start is lower there, follow it instead. Fall back to searching with all
+      // starts at every μ when that does not settle (first-order jumps).
+      const tolOmega = o.energyTolerance * n;
+      let muNow = o.warm?.mu ?? uniformMuGuess(model, f);
+      if (!(Math.abs(muNow) < bound)) muNow = 0;
+      // With a warm start (the previous point of a sweep) follow it first; every start is still
+      // compared at the μ found.
+      let champion = o.warm ? runOne(candidates[0], muNow) : runAll(muNow);
+      muSteps = 1;
+      let settled: Candidate | undefined;
+      for (let round = 0; round < 3 && !settled; round++) {
+        const follow = champion;
+        const search = findMu((m) => runOne(follow, m), f, o, problem, bound, mu);
+        muSteps += search.steps;
+        if (search.warning) break;
+        const atMu = mu;
+        const lowest = runAll(atMu);
+        muSteps++;
+        if (lowest === follow || lowest.omega >= follow.omega - tolOmega) settled = follow;
+        else champion = lowest;
+      }
+      if (settled) {
+        best = settled;
+      } else {
+        const search = findMu(runAll, f, o, problem, bound, mu);
+        best = search.best;
+        muSteps += search.steps;
+        if (search.warning) warnings.push(search.warning);
+      }
     }
   }
   const tol = o.energyTolerance * n;
@@ -380,6 +490,7 @@ function findMu(
   o: Resolved,
   problem: MeanFieldProblem,
   bound: number,
+  mu0: number,
 ): { best: Candidate; steps: number; warning?: string } {
   const tolN = o.densityTolerance;
   const scale = Math.max(1e-3, bound / problem.model.nSites);
@@ -388,10 +499,10 @@ function findMu(
   let hi = bound; // density(hi) ≥ f
   let gLo = -f;
   let gHi = 1 - f;
-  let loState: { best: Candidate; x: Float64Array; mu: number } | undefined;
-  let hiState: { best: Candidate; x: Float64Array; mu: number } | undefined;
+  let loState: { best: Candidate; x: Float64Array; mu: number; density: number } | undefined;
+  let hiState: { best: Candidate; x: Float64Array; mu: number; density: number } | undefined;
   let steps = 0;
-  let mu = o.warm?.mu ?? uniformMuGuess(problem.model, f);
+  let mu = mu0;
   if (!(mu > lo && mu < hi)) mu = 0;
   let prev: { mu: number; g: number } | undefined;
   let step = 0.05 * scale;
@@ -401,7 +512,7 @@ function findMu(
     steps++;
     const g = best.density - f;
     if (Math.abs(g) <= tolN) return { best, steps };
-    const snap = { best, x: Float64Array.from(best.x), mu };
+    const snap = { best, x: Float64Array.from(best.x), mu, density: best.density };
     if (g < 0) {
       lo = mu;
       gLo = g;
@@ -435,10 +546,10 @@ function findMu(
     mu = next;
   }
   // The density jumps across the filling: first-order transition in μ (phase separation).
-  const pick = loState && hiState ? (Math.abs(loState.best.density - f) <= Math.abs(hiState.best.density - f) ? loState : hiState) : (loState ?? hiState)!;
+  const pick = loState && hiState ? (Math.abs(loState.density - f) <= Math.abs(hiState.density - f) ? loState : hiState) : (loState ?? hiState)!;
   const final = runAll(pick.mu);
-  const dLo = loState?.best.density ?? 0;
-  const dHi = hiState?.best.density ?? 1;
+  const dLo = loState?.density ?? 0;
+  const dHi = hiState?.density ?? 1;
   return {
     best: final,
     steps: steps + 1,

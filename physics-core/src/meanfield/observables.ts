@@ -13,7 +13,8 @@
  *   the mean over the supercell's plaquettes, `staggered` the largest |Fourier component| at a
  *   nonzero ordering vector, and `byType` the mean per plaquette type of the unit cell.
  * - structure factor: S(q) = (1/Ns) Σ_ij e^{iq(r_i−r_j)} (⟨n_i n_j⟩ − n̄²) of the product state
- *   on the supercell's allowed momenta, n̄ the mean density; for a product state this is
+ *   on the supercell's allowed momenta (with a multi-site basis also shifted by the first
+ *   reciprocal vectors, where sublattice order shows), n̄ the mean density; for a product state this is
  *   (1/Ns)|Σ_i e^{iq·r_i}(n_i − n̄)|² + (1/Ns)Σ_i n_i(1 − n_i). It measures the classical
  *   density pattern the way ED's connected S(q) sees a symmetric superposition of the patterns.
  * - condensateFraction = Σ|β_i|² / Σ n_i (fraction of particles in the condensate of the product
@@ -143,7 +144,7 @@ export function meanFieldObservables(
   }
   const total = nbar;
   nbar /= n;
-  const structureFactor = problem.momenta.map((q) => {
+  const structureFactor = problem.structureMomenta.map((q) => {
     let re = 0;
     let im = 0;
     for (let i = 0; i < n; i++) {

@@ -52,18 +52,22 @@ export interface SupercellPlaquette {
 
 export interface SupercellModel {
   nSites: number;
+  /** Supercell image of every site of the compiled cluster. */
+  image: Int32Array;
   sites: SupercellSite[];
   supercell: Supercell;
   /** Plain hops t·b†_to b_from + h.c. (twist phase included). */
-  hop: { from: Int32Array; to: Int32Array; re: Float64Array; im: Float64Array; dcell: Int32Array; link: Int32Array; sign: Int8Array; term: Int32Array };
+  hop: { from: Int32Array; to: Int32Array; re: Float64Array; im: Float64Array; dcell: Int32Array; link: Int32Array; sign: Int8Array; term: Int32Array; source: Int32Array };
   /** Conditional hops t·b†_to (alpha + gamma·n_via) b_from + h.c.: empty → (1, −1), occupied → (0, 1). */
   cond: {
     from: Int32Array; via: Int32Array; to: Int32Array; re: Float64Array; im: Float64Array;
-    alpha: Float64Array; gamma: Float64Array; dcell: Int32Array; link: Int32Array; sign: Int8Array; term: Int32Array;
+    alpha: Float64Array; gamma: Float64Array; dcell: Int32Array; link: Int32Array; sign: Int8Array; term: Int32Array; source: Int32Array;
   };
-  inter: { i: Int32Array; j: Int32Array; value: Float64Array };
+  inter: { i: Int32Array; j: Int32Array; value: Float64Array; term: Int32Array; source: Int32Array };
   /** Summed on-site values per supercell site. */
   onsite: Float64Array;
+  /** Compiled on-site entries (term, entry index) summed into each supercell site. */
+  onsiteSources: { site: number; term: number; source: number }[];
   links: Link[];
   plaquettes: SupercellPlaquette[];
   translations: number[][];
@@ -137,15 +141,17 @@ export function buildSupercellModel(compiled: CompiledModel, supercell: Supercel
 
   const phaseOf = (dcell: number[]): number => dcell.reduce((s, c, a) => s + c * (twistPerCell[a] ?? 0), 0);
 
-  const hop = { from: [] as number[], to: [] as number[], re: [] as number[], im: [] as number[], dcell: [] as number[], link: [] as number[], sign: [] as number[], term: [] as number[] };
-  const cond = { from: [] as number[], via: [] as number[], to: [] as number[], re: [] as number[], im: [] as number[], alpha: [] as number[], gamma: [] as number[], dcell: [] as number[], link: [] as number[], sign: [] as number[], term: [] as number[] };
-  const inter = { i: [] as number[], j: [] as number[], value: [] as number[] };
+  const hop = { from: [] as number[], to: [] as number[], re: [] as number[], im: [] as number[], dcell: [] as number[], link: [] as number[], sign: [] as number[], term: [] as number[], source: [] as number[] };
+  const cond = { from: [] as number[], via: [] as number[], to: [] as number[], re: [] as number[], im: [] as number[], alpha: [] as number[], gamma: [] as number[], dcell: [] as number[], link: [] as number[], sign: [] as number[], term: [] as number[], source: [] as number[] };
+  const inter = { i: [] as number[], j: [] as number[], value: [] as number[], term: [] as number[], source: [] as number[] };
   const onsite = new Float64Array(nSites);
+  const onsiteSources: { site: number; term: number; source: number }[] = [];
 
   for (const term of compiled.terms) {
     if (term.kind === 'hop') {
-      for (const e of term.entries) {
+      for (const [src, e] of term.entries.entries()) {
         if (!inHome[e.from]) continue;
+        hop.source.push(src);
         const b = lattice.bonds[e.bond];
         const along = b.from === e.from && b.to === e.to;
         const dx = along ? b.dx : -b.dx;
@@ -167,8 +173,9 @@ export function buildSupercellModel(compiled: CompiledModel, supercell: Supercel
     } else if (term.kind === 'conditional-hop') {
       const alpha = term.when === 'empty' ? 1 : 0;
       const gamma = term.when === 'empty' ? -1 : 1;
-      for (const e of term.entries) {
+      for (const [src, e] of term.entries.entries()) {
         if (!inHome[e.from]) continue;
+        cond.source.push(src);
         const p = lattice.paths[e.path];
         const along = p.from === e.from && p.to === e.to;
         const dx = along ? p.dx : -p.dx;
@@ -192,15 +199,19 @@ export function buildSupercellModel(compiled: CompiledModel, supercell: Supercel
         cond.term.push(term.termIndex);
       }
     } else if (term.kind === 'interaction') {
-      for (const e of term.entries) {
+      for (const [src, e] of term.entries.entries()) {
         if (!inHome[e.i]) continue;
+        inter.term.push(term.termIndex);
+        inter.source.push(src);
         inter.i.push(image[e.i]);
         inter.j.push(image[e.j]);
         inter.value.push(e.value);
       }
     } else {
-      for (const e of term.entries) {
-        if (inHome[e.i]) onsite[image[e.i]] += e.value;
+      for (const [src, e] of term.entries.entries()) {
+        if (!inHome[e.i]) continue;
+        onsite[image[e.i]] += e.value;
+        onsiteSources.push({ site: image[e.i], term: term.termIndex, source: src });
       }
     }
   }
@@ -209,19 +220,21 @@ export function buildSupercellModel(compiled: CompiledModel, supercell: Supercel
 
   return {
     nSites,
+    image,
     sites,
     supercell,
     hop: {
       from: Int32Array.from(hop.from), to: Int32Array.from(hop.to), re: Float64Array.from(hop.re), im: Float64Array.from(hop.im),
-      dcell: Int32Array.from(hop.dcell), link: Int32Array.from(hop.link), sign: Int8Array.from(hop.sign), term: Int32Array.from(hop.term),
+      dcell: Int32Array.from(hop.dcell), link: Int32Array.from(hop.link), sign: Int8Array.from(hop.sign), term: Int32Array.from(hop.term), source: Int32Array.from(hop.source),
     },
     cond: {
       from: Int32Array.from(cond.from), via: Int32Array.from(cond.via), to: Int32Array.from(cond.to),
       re: Float64Array.from(cond.re), im: Float64Array.from(cond.im), alpha: Float64Array.from(cond.alpha), gamma: Float64Array.from(cond.gamma),
-      dcell: Int32Array.from(cond.dcell), link: Int32Array.from(cond.link), sign: Int8Array.from(cond.sign), term: Int32Array.from(cond.term),
+      dcell: Int32Array.from(cond.dcell), link: Int32Array.from(cond.link), sign: Int8Array.from(cond.sign), term: Int32Array.from(cond.term), source: Int32Array.from(cond.source),
     },
-    inter: { i: Int32Array.from(inter.i), j: Int32Array.from(inter.j), value: Float64Array.from(inter.value) },
+    inter: { i: Int32Array.from(inter.i), j: Int32Array.from(inter.j), value: Float64Array.from(inter.value), term: Int32Array.from(inter.term), source: Int32Array.from(inter.source) },
     onsite,
+    onsiteSources,
     links,
     plaquettes,
     translations: T,
