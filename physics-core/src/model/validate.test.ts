@@ -84,6 +84,9 @@ describe('parseModelSpec', () => {
       terms: [{ kind: 'hop', amplitude: -1 }],
     });
     expect(at(issues, '$.particles.filling')).toContain('filling 0.5 on 9 sites gives 4.5 particles, not an integer');
+    // a mean-field caller, for which the filling is a density, may accept it
+    const meanField = { ...good(), lattice: { kind: 'chain', size: [9], boundary: ['periodic'] }, terms: [{ kind: 'hop', amplitude: -1 }] };
+    expect(parseModelSpec(meanField, { integerParticles: false }).particles.filling).toBe(0.5);
     const both = issuesOf({ ...good(), particles: { kind: 'hardcore', filling: 0.5, count: 6 } });
     expect(at(both, '$.particles')).toContain('not both');
     const many = issuesOf({ ...good(), particles: { kind: 'hardcore', count: 13 } });

@@ -59,7 +59,7 @@ function unknownFields(obj: Record<string, unknown>, allowed: string[], path: st
 
 function whichTermsAllow(field: string): string {
   const ks = TERM_KINDS.filter((k) => TERM_FIELDS[k].includes(field));
-  return ks.map((k) => `${k}`).join(' and ');
+  return ks.length <= 2 ? ks.join(' and ') : `${ks.slice(0, -1).join(', ')} and ${ks[ks.length - 1]}`;
 }
 
 /**
@@ -335,7 +335,7 @@ function checkCustom(cu: unknown, issues: SpecIssue[]): { dim: number; nBasis: n
   return ok ? { dim, nBasis } : undefined;
 }
 
-function checkParticles(p: unknown, nSites: number, latticeOk: boolean, issues: SpecIssue[]): void {
+function checkParticles(p: unknown, nSites: number, latticeOk: boolean, integer: boolean, issues: SpecIssue[]): void {
   const path = '$.particles';
   if (!isObject(p)) {
     issues.push({ path, message: "must be an object { kind: 'hardcore', filling | count }" });
@@ -356,7 +356,7 @@ function checkParticles(p: unknown, nSites: number, latticeOk: boolean, issues: 
       issues.push({ path: `${path}.filling`, message: `must be a number in [0, 1] for hardcore bosons, got ${JSON.stringify(f)}` });
       return;
     }
-    if (!latticeOk) return;
+    if (!latticeOk || !integer) return;
     const n = f * nSites;
     if (Math.abs(n - Math.round(n)) > 1e-9)
       issues.push({
@@ -444,7 +444,15 @@ function checkTerms(
  * problem with its JSON path. The returned object is a deep copy of the input (no defaults
  * filled in, so hashing it is stable).
  */
-export function parseModelSpec(json: unknown): ModelSpec {
+export interface ParseOptions {
+  /**
+   * Require `filling × sites` to be an integer (exact diagonalization works at a fixed particle
+   * number). Mean-field solvers, for which the filling is a density, may switch it off. @default true
+   */
+  integerParticles?: boolean;
+}
+
+export function parseModelSpec(json: unknown, options: ParseOptions = {}): ModelSpec {
   const issues: SpecIssue[] = [];
   if (!isObject(json)) throw new SpecError([{ path: '$', message: 'a model spec must be a JSON object' }]);
   unknownFields(json, ROOT_FIELDS, '$', issues);
@@ -478,7 +486,7 @@ export function parseModelSpec(json: unknown): ModelSpec {
       classes = undefined;
     }
   }
-  checkParticles(json.particles, lat.nSites, lat.ok, issues);
+  checkParticles(json.particles, lat.nSites, lat.ok, options.integerParticles ?? true, issues);
   checkTerms(json.terms, classes, String(latObj.kind), paramNames, issues);
   if (issues.length === 0) {
     // The cluster must be large enough for the shells the terms use (see lattice/neighbors.ts).
