@@ -67,7 +67,7 @@ export function handModel(h: HandModel): CompiledModel {
     });
   }
   if (h.onsite?.length) {
-    terms.push({ termIndex: termIndex++, kind: 'onsite', entries: h.onsite.map(([i, value]) => ({ i, value })) });
+    terms.push({ termIndex, kind: 'onsite', entries: h.onsite.map(([i, value]) => ({ i, value })) });
   }
   const plaquettes: Plaquette[] = (h.plaquettes ?? []).map((sites, index) => ({
     index,

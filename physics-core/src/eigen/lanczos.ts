@@ -154,9 +154,9 @@ export function lanczos(
   let normEstimate = 0;
   let j = 0; // next column of T to fill
   let lastBeta = 0;
-  let ritzValues: Float64Array = new Float64Array(0);
-  let ritzVectors: Float64Array = new Float64Array(0);
-  let size = 0;
+  let ritzValues: Float64Array;
+  let ritzVectors: Float64Array;
+  let size: number;
 
   for (;;) {
     // Extend the window.

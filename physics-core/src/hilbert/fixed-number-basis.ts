@@ -31,7 +31,7 @@ export interface FixedNumberBasis {
 /** Binomial coefficient as a double (exact below 2^53). */
 export function binomial(n: number, k: number): number {
   if (k < 0 || k > n || n < 0) return 0;
-  let kk = Math.min(k, n - k);
+  const kk = Math.min(k, n - k);
   let r = 1;
   for (let i = 1; i <= kk; i++) r = (r * (n - kk + i)) / i;
   return Math.round(r);
