@@ -1,0 +1,76 @@
+import { describe, expect, it } from 'vitest';
+import type { ModelSpec } from '../model/types.js';
+import type { Result } from '../result.js';
+import { solveMeanField } from '../meanfield/gutzwiller.js';
+import { xxzSpec } from '../meanfield/test-helpers.js';
+import { classifyPoint } from './phases.js';
+
+function synthetic(over: Partial<Result>): Result {
+  return {
+    spec: 'phasewright.result/1', method: 'meanfield', energy: 0, energyPerSite: 0, energies: [0], gap: null, degenerate: false,
+    sites: Array.from({ length: 6 }, (_, i) => ({ index: i, x: i, y: 0, density: 0.5, condensate: [0, 0] as [number, number] })),
+    bonds: [], plaquettes: [], structureFactor: [], condensateFraction: 0,
+    convergence: { converged: true, iterations: 1, residual: 0 }, timing: { buildMs: 0, solveMs: 0 }, provenance: { modelHash: '', version: '' },
+    ...over,
+  };
+}
+
+describe('classifyPoint on mean-field points', () => {
+  it('J–V hardcore bosons on the square lattice: superfluid below V = 2J, density wave at (π, π) above (Matsubara & Matsuda 1956)', () => {
+    const sf = classifyPoint(solveMeanField(xxzSpec('square', [4, 4], 1), { supercell: [2, 2] }).result);
+    expect(sf.label.id).toBe('superfluid');
+    const dw = classifyPoint(solveMeanField(xxzSpec('square', [4, 4], 3), { supercell: [2, 2] }).result);
+    expect(dw.label.id).toBe('density-wave');
+    const q = dw.label.evidence.orderingVector as number[];
+    expect(Math.abs(Math.cos(q[0]))).toBeCloseTo(1, 9);
+    expect(Math.abs(Math.cos(q[1]))).toBeCloseTo(1, 9);
+    expect(Math.cos(q[0]) * Math.cos(q[1])).toBeCloseTo(1, 9); // (π, π) up to reciprocal vectors
+  });
+
+  it('frustrated hopping (+J) on the triangular lattice orders in a 120° pattern on the √3×√3 cell (classical XY antiferromagnet, from memory: the standard three-sublattice ground state)', () => {
+    const spec: ModelSpec = {
+      spec: 'phasewright.model/1',
+      lattice: { kind: 'triangular', size: [6, 6], boundary: ['periodic', 'periodic'] },
+      particles: { kind: 'hardcore', filling: 0.5 },
+      parameters: { J: 1 },
+      terms: [{ kind: 'hop', neighbors: 1, amplitude: 'J' }],
+    };
+    const { result } = solveMeanField(spec, { supercell: 'sqrt3', starts: 8 });
+    const c = classifyPoint(result);
+    expect(c.label.id).toBe('phase-order-120');
+    expect(c.label.evidence.meanVectorChirality as number).toBeCloseTo(1, 6);
+    // classical energy per bond of the 120° state: 2J|β|² cos(120°) = −J/4 at half filling
+    expect(result.energyPerSite / 3).toBeCloseTo(-0.25, 6);
+  });
+});
+
+describe('classifyPoint on synthetic observables', () => {
+  it('supersolid when both a condensate and a density wave are present', () => {
+    const r = synthetic({ condensateFraction: 0.3, structureFactor: [{ q: [Math.PI, 0], value: 0.4 }, { q: [0, 0], value: 0 }] });
+    const c = classifyPoint(r);
+    expect(c.label.id).toBe('supersolid');
+    expect(c.label.evidence.orderingVector).toEqual([Math.PI, 0]);
+    expect(c.signals.map((s) => s.id).sort()).toEqual(['density-wave', 'superfluid']);
+  });
+
+  it('chiral superfluid for a uniform circulation, flux lattice for a staggered one', () => {
+    const loops = (c: number[]) => c.map((v, i) => ({ sites: [i, i + 1, i + 2], circulation: v, flux: 0, chirality: 0 }));
+    expect(classifyPoint(synthetic({ condensateFraction: 0.4, plaquettes: loops([0.1, 0.1, 0.1, 0.1]) })).label.id).toBe('chiral-superfluid');
+    expect(classifyPoint(synthetic({ condensateFraction: 0.4, plaquettes: loops([0.1, -0.1, 0.1, -0.1]) })).label.id).toBe('flux-lattice');
+  });
+
+  it('ED points use larger finite-size thresholds; nothing found gives unresolved with the evidence', () => {
+    const weak = synthetic({ method: 'ed', condensateFraction: 0.1, structureFactor: [{ q: [Math.PI, 0], value: 0.2 }] });
+    const c = classifyPoint(weak);
+    expect(c.label.id).toBe('unresolved');
+    expect(c.label.evidence).toMatchObject({ condensateFraction: 0.1 });
+    expect(classifyPoint({ ...weak, method: 'meanfield' }).label.id).toBe('superfluid');
+  });
+
+  it('halves confidence for unconverged points and rejects bad thresholds by name', () => {
+    const good = classifyPoint(synthetic({ condensateFraction: 0.3 })).label.confidence;
+    const bad = classifyPoint(synthetic({ condensateFraction: 0.3, convergence: { converged: false, iterations: 1, residual: 1 } })).label.confidence;
+    expect(bad).toBeCloseTo(good / 2, 12);
+    expect(() => classifyPoint(synthetic({}), { densityWave: -1 })).toThrow(/classify\.densityWave/);
+  });
+});
