@@ -13,6 +13,8 @@ import { useOnlineStatus } from '../../lib/use-online-status.js';
 
 const NAV_ITEMS = [
   { to: '/', label: 'Home', end: true },
+  { to: '/projects/device', label: 'This device', end: false },
+  { to: '/models/new', label: 'New model', end: true },
   { to: '/status', label: 'Status', end: false },
 ] as const;
 

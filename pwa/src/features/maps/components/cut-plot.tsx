@@ -1,0 +1,72 @@
+/** A 1D cut: any scalar observable against the first axis, points marked (unconverged hollow). */
+import type { SweepSpec } from '@phasewright/physics-core';
+import { AxisBottom, AxisLeft } from '@visx/axis';
+import { Group } from '@visx/group';
+import { scaleLinear, scaleLog } from '@visx/scale';
+import { LinePath } from '@visx/shape';
+import { forwardRef } from 'react';
+import { axisInfo, scalar, type MapCell } from '../lib/map-data.js';
+
+interface Props {
+  sweep: SweepSpec;
+  cells: MapCell[];
+  observable: string;
+  selectedKeys: ReadonlySet<string>;
+  onSelect: (cell: MapCell) => void;
+  colorOf: (cell: MapCell) => string;
+  width?: number;
+}
+
+const M = { top: 28, right: 16, bottom: 44, left: 64 };
+const INK = '#1d2640';
+
+export const CutPlot = forwardRef<SVGSVGElement, Props>(function CutPlot({ sweep, cells, observable, selectedKeys, onSelect, colorOf, width = 620 }, ref) {
+  const a = axisInfo(sweep)[0];
+  const height = 260;
+  const iw = width - M.left - M.right;
+  const ih = height - M.top - M.bottom;
+  // Along a 1D sweep every point is on the line; on a grid, the row of the first value of axis 2.
+  const axis2 = sweep.axes[1]?.parameter;
+  const row = axis2 ? Math.min(...cells.map((c) => c.point.parameters[axis2])) : undefined;
+  const pts = cells
+    .filter((c) => row === undefined || c.point.parameters[axis2 as string] === row)
+    .map((c) => ({ c, xv: c.at[0], yv: scalar(c.point, observable) }))
+    .filter((p): p is { c: MapCell; xv: number; yv: number } => p.yv !== undefined)
+    .sort((p, q) => p.xv - q.xv);
+  const ys = pts.map((p) => p.yv);
+  const lo = ys.length ? Math.min(...ys) : 0;
+  const hi = ys.length ? Math.max(...ys) : 1;
+  const pad = (hi - lo || Math.abs(hi) || 1) * 0.08;
+  const x = a.log ? scaleLog<number>({ domain: [a.min, a.max], range: [0, iw] }) : scaleLinear<number>({ domain: [a.min, a.max === a.min ? a.min + 1 : a.max], range: [0, iw] });
+  const y = scaleLinear<number>({ domain: [lo - pad, hi + pad], range: [ih, 0], nice: true });
+  const title = `${observable} along ${a.parameter}${row !== undefined ? ` (${axis2} = ${row})` : ''}`;
+  return (
+    <svg ref={ref} viewBox={`0 0 ${width} ${height}`} width="100%" role="img" aria-label={title} data-testid="cut-plot" className="block">
+      <title>{title}</title>
+      <text x={M.left} y={17} fontSize={13} fontWeight={600} fill={INK}>
+        {title}
+      </text>
+      <Group left={M.left} top={M.top}>
+        <LinePath data={pts} x={(p) => x(p.xv) ?? 0} y={(p) => y(p.yv) ?? 0} stroke={INK} strokeWidth={1.5} />
+        {pts.map((p) => (
+          <circle
+            key={p.c.key}
+            cx={x(p.xv) ?? 0}
+            cy={y(p.yv) ?? 0}
+            r={selectedKeys.has(p.c.key) ? 6 : 4}
+            fill={p.c.point.convergence.converged ? colorOf(p.c) : '#fffcf6'}
+            stroke={INK}
+            strokeWidth={selectedKeys.has(p.c.key) ? 2 : 1}
+            onClick={() => onSelect(p.c)}
+            style={{ cursor: 'pointer' }}
+            data-point={p.c.key}
+          >
+            <title>{`${p.c.key}: ${p.yv.toPrecision(6)}${p.c.point.convergence.converged ? '' : ' (not converged)'}`}</title>
+          </circle>
+        ))}
+        <AxisBottom top={ih} scale={x} numTicks={6} stroke={INK} tickStroke={INK} label={a.parameter} labelProps={{ fontSize: 12, fill: INK, textAnchor: 'middle', fontFamily: 'Manrope, sans-serif' }} tickLabelProps={{ fontSize: 10, fill: INK, fontFamily: 'Manrope, sans-serif' }} />
+        <AxisLeft scale={y} numTicks={5} stroke={INK} tickStroke={INK} label={observable} labelOffset={40} labelProps={{ fontSize: 12, fill: INK, textAnchor: 'middle', fontFamily: 'Manrope, sans-serif' }} tickLabelProps={{ fontSize: 10, fill: INK, fontFamily: 'Manrope, sans-serif' }} />
+      </Group>
+    </svg>
+  );
+});
