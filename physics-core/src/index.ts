@@ -52,3 +52,13 @@ export { refineItems, traceBoundaries, type Boundary, type BoundaryVertex } from
 export { extractObservables, allObservables, structureFactorAt } from './sweep/observables.js';
 export { solvePoint } from './sweep/solve-point.js';
 export { hashModel, canonicalHash, mapIdentity, pointSeed } from './maps/provenance.js';
+export { prepareMeanField, minimiseMeanField, checkMeanFieldOptions, type MeanFieldProblem } from './meanfield/gutzwiller.js';
+export { lbfgs, checkLbfgsOptions, type LbfgsOptions, type LbfgsResult } from './meanfield/lbfgs.js';
+export { resolveSupercell, supercellMomenta, type Supercell, type SupercellSpec } from './meanfield/supercell.js';
+export { hardcoreSiteSpace, type SiteSpace } from './meanfield/site-space.js';
+export type { LinkObservable, FluxSummary } from './meanfield/observables.js';
+export { bandsOfSpec, blochModelFromSpec, type BandsOptions, type BandsReport } from './bands/from-spec.js';
+export { bandPath, blochHamiltonian, highSymmetryPoints, type BlochModel, type BlochHop, type BandPath } from './bands/bloch.js';
+export { chernNumbers, type ChernOptions, type ChernResult, type BandGroup } from './bands/chern.js';
+export { hermitianEigen } from './bands/hermitian-eigen.js';
+export { classifyPoint, checkClassifyOptions, type ClassifyOptions, type Classification, type PhaseId } from './classify/phases.js';

@@ -3,6 +3,7 @@ import type { Method, Result } from './result.js';
 import { compileModel } from './model/compile.js';
 import { hashModel } from './maps/provenance.js';
 import { solveEd, type EdOptions } from './ed/solve-ed.js';
+import { solveMeanField, type MeanFieldOptions } from './meanfield/gutzwiller.js';
 
 /** Options of `solve`: the method and its solver options. */
 export interface SolveOptions {
@@ -12,6 +13,8 @@ export interface SolveOptions {
   overrides?: Record<string, number>;
   /** Options of exact diagonalization (method 'ed'). */
   ed?: EdOptions;
+  /** Options of the Gutzwiller mean-field solver (method 'meanfield'). */
+  meanfield?: MeanFieldOptions;
 }
 
 /**
@@ -25,6 +28,9 @@ export function solve(model: ModelSpec | CompiledModel, options: SolveOptions = 
   switch (method) {
     case 'ed':
       result = solveEd(compiled, options.ed);
+      break;
+    case 'meanfield':
+      result = solveMeanField(compiled.spec, options.meanfield).result;
       break;
     default:
       throw new RangeError(`solve: method '${String(method)}' is not available`);

@@ -30,6 +30,8 @@ import { reciprocal, supercellMomenta, type Supercell, type SupercellSpec } from
 import { buildSupercellModel, type SupercellModel } from './supercell-model.js';
 import { parameterValues, reweightSupercellModel, termEvaluators, type TermEvaluators } from './reweight.js';
 import { meanFieldObservables } from './observables.js';
+import { classifyPoint } from '../classify/phases.js';
+import { CORE_VERSION } from '../index.js';
 
 export interface MeanFieldOptions {
   /** Supercell in unit cells: counts per axis, integer vectors, or 'sqrt3'. @default one unit cell */
@@ -256,6 +258,8 @@ export function solveMeanField(spec: ModelSpec, options: MeanFieldOptions = {}, 
     buildMs: t1 - t0,
     solveMs: now() - t1,
   });
+  result.label = classifyPoint(result).label;
+  result.provenance.version = CORE_VERSION;
   return { result, warm: { params: Array.from(out.params), mu: out.mu } };
 }
 
