@@ -9,6 +9,8 @@ import { registerMerge } from './merge.js';
 import { registerSpotCheck } from './spot-check.js';
 import { registerExport } from './export.js';
 import { registerSolve } from './solve.js';
+import { registerBands } from './bands.js';
 
 commands.push(registerSweep, registerMerge, registerSpotCheck, registerExport);
 commands.push(registerSolve);
+commands.push(registerBands);
