@@ -1,0 +1,174 @@
+// The explorer end to end: build a zigzag model in the editor, run a small 2D mean-field sweep
+// and a 1D ED cut, watch the map fill in, open a point's detail, rename a phase label, reload and
+// find everything still there, export a figure as SVG. Prints the longest main-thread task seen
+// during the sweeps (PerformanceObserver 'longtask') and the gzipped size of the JavaScript the
+// start page loads.
+import assert from 'node:assert/strict';
+import { writeFile } from 'node:fs/promises';
+import { join } from 'node:path';
+import { fileURLToPath } from 'node:url';
+import { gzipSync } from 'node:zlib';
+
+const screenshotDir = join(fileURLToPath(new URL('.', import.meta.url)), '..', '..', '.screenshots');
+
+/** Records the longest task of each page load in window.__pwLongest (ms). */
+const LONGTASK_SCRIPT = `
+  window.__pwLongest = 0; window.__pwLongTasks = 0;
+  try {
+    new PerformanceObserver((list) => {
+      for (const e of list.getEntries()) { window.__pwLongTasks++; if (e.duration > window.__pwLongest) window.__pwLongest = e.duration; }
+    }).observe({ type: 'longtask', buffered: true });
+  } catch {}
+`;
+
+/** @param {import('playwright-core').Page} page */
+async function fill(page, path, value) {
+  const input = page.locator(`[data-path="${path}"]`).first();
+  await input.fill(String(value));
+}
+
+/** @param {import('playwright-core').Page} page */
+async function waitFinished(page, timeout = 30_000) {
+  await page.locator('[data-run-state="done"]').waitFor({ timeout });
+}
+
+export const tests = [
+  {
+    name: 'zigzag model → mean-field grid and ED cut → map, detail, label rename, reload, SVG export',
+    async run({ baseUrl, context, page, screenshot }) {
+      await context.addInitScript(LONGTASK_SCRIPT);
+
+      // Initial JavaScript of the start page, gzipped (what the shell costs before any route).
+      const scripts = new Map();
+      const onResponse = async (response) => {
+        const url = response.url();
+        if (url.endsWith('.js') && url.startsWith(baseUrl)) scripts.set(url, response);
+      };
+      page.on('response', onResponse);
+      await page.goto(`${baseUrl}/`);
+      await page.getByRole('heading', { level: 1 }).waitFor();
+      await page.waitForLoadState('networkidle');
+      page.off('response', onResponse);
+      let gz = 0;
+      let raw = 0;
+      for (const response of scripts.values()) {
+        const body = await response.body().catch(() => Buffer.alloc(0));
+        raw += body.length;
+        gz += gzipSync(body, { level: 9 }).length;
+      }
+      console.log(`     initial JS of the start page: ${scripts.size} files, ${(raw / 1024).toFixed(1)} kB, ${(gz / 1024).toFixed(1)} kB gzipped (target < 300 kB)`);
+      assert.ok(gz < 300 * 1024, `initial JS ${(gz / 1024).toFixed(1)} kB gzipped is over 300 kB`);
+
+      // 1. Build a zigzag model in the editor.
+      await page.getByRole('navigation', { name: 'Main' }).getByRole('link', { name: 'New model' }).click();
+      await page.getByText('The model is valid.').waitFor();
+      await fill(page, '$.name', 'zigzag e2e');
+      await page.selectOption('[data-path="$.lattice.kind"]', 'zigzag');
+      await fill(page, '$.lattice.size[0]', 'x');
+      await page.locator('[data-field-error]').filter({ hasText: 'positive integer' }).first().waitFor();
+      await fill(page, '$.lattice.size[0]', 4);
+      await page.getByRole('button', { name: 'Add term' }).click();
+      await page.selectOption('[data-path="$.terms[2].kind"]', 'conditional-hop');
+      await page.selectOption('[data-path="$.terms[2].class"]', 'leg');
+      await fill(page, '$.terms[2].amplitude', '-0.5*J');
+      await fill(page, '$.terms[2].phase', 'turn*pi/2');
+      await page.getByText('The model is valid.').waitFor();
+      await page.getByTestId('lattice-preview').waitFor();
+      assert.equal(await page.getByTestId('hilbert-dimension').textContent(), '70', 'C(8, 4) = 70 states for 8 sites at half filling');
+      await screenshot('explorer-1-model-editor');
+      await page.getByRole('button', { name: 'Save model' }).click();
+      await page.waitForURL(/\/models\/[0-9a-f-]{36}$/);
+      const modelUrl = page.url();
+
+      // 2. A small 2D mean-field sweep (V × J); the map fills in.
+      await page.getByRole('button', { name: 'Sweep this model →' }).click();
+      await page.getByRole('form', { name: 'Sweep' }).waitFor();
+      await fill(page, '$.name', 'zigzag mean-field grid');
+      await page.selectOption('[data-path="$.method"]', 'meanfield');
+      await fill(page, '$.solver.starts', 2);
+      await page.selectOption('[data-path="$.axes[0].parameter"]', 'V');
+      await fill(page, '$.axes[0].from', 0);
+      await fill(page, '$.axes[0].to', 3);
+      await fill(page, '$.axes[0].points', 5);
+      await page.getByRole('button', { name: 'Add a second axis (grid)' }).click();
+      await page.selectOption('[data-path="$.axes[1].parameter"]', 'J');
+      await fill(page, '$.axes[1].from', 0.25);
+      await fill(page, '$.axes[1].to', 1);
+      await fill(page, '$.axes[1].points', 4);
+      await page.getByText('20 coarse points').waitFor();
+      await page.getByRole('button', { name: 'Create sweep and start' }).click();
+      await page.waitForURL(/\/sweeps\//);
+      await page.locator('[data-testid="phase-map"] [data-point]').first().waitFor({ timeout: 20_000 });
+      await screenshot('explorer-2-mf-filling');
+      await waitFinished(page);
+      const mfSweepUrl = page.url();
+      const mfCells = await page.locator('[data-testid="phase-map"] [data-point]').count();
+      assert.equal(mfCells, 20, 'all 20 grid points are on the map');
+      const longestMf = await page.evaluate(() => window.__pwLongest);
+      await page.getByText('Mean-field (Gutzwiller product states)').waitFor();
+      await screenshot('explorer-3-mf-map');
+
+      // 3. Rename a phase label (an annotation).
+      const firstLabel = page.locator('[data-label]').filter({ has: page.getByTestId('legend-name') }).first();
+      const labelId = await firstLabel.getAttribute('data-label');
+      assert.ok(labelId, 'the mean-field map has a phase label');
+      await firstLabel.getByRole('button', { name: /^Rename/ }).click();
+      await page.getByRole('textbox', { name: /^New name for/ }).fill('vortex liquid (renamed)');
+      await page.getByRole('button', { name: 'Save', exact: true }).click();
+      await page.getByTestId('legend-name').filter({ hasText: 'vortex liquid (renamed)' }).waitFor();
+
+      // 4. A point's detail: the cluster with densities, currents and fluxes, recomputed in a worker.
+      await page.locator('[data-testid="phase-map"] [data-point] rect').nth(7).click();
+      await page.getByTestId('point-cluster').waitFor({ timeout: 20_000 });
+      await page.getByTestId('point-detail').scrollIntoViewIfNeeded();
+      await screenshot('explorer-4-point-detail');
+
+      // 5. Export the map as SVG (font embedded).
+      const [download] = await Promise.all([page.waitForEvent('download'), page.getByRole('button', { name: 'Export SVG', exact: true }).click()]);
+      const svgPath = join(screenshotDir, 'explorer-map.svg');
+      await download.saveAs(svgPath);
+      const { readFile } = await import('node:fs/promises');
+      const svg = await readFile(svgPath, 'utf8');
+      assert.match(svg, /@font-face\{font-family:'Manrope'/, 'the SVG embeds Manrope');
+      assert.match(svg, /src:url\(data:font\/woff2;base64,/, 'the font is a data URL');
+      assert.match(svg, /vortex liquid|<rect/, 'the SVG holds the map');
+      console.log(`     exported SVG: ${svgPath} (${(svg.length / 1024).toFixed(0)} kB)`);
+
+      // 6. A 1D ED cut along V (fidelity susceptibility on).
+      await page.goto(modelUrl);
+      await page.getByRole('button', { name: 'Sweep this model →' }).click();
+      await page.getByRole('form', { name: 'Sweep' }).waitFor();
+      await fill(page, '$.name', 'zigzag ED cut');
+      await page.selectOption('[data-path="$.axes[0].parameter"]', 'V');
+      await fill(page, '$.axes[0].from', 0);
+      await fill(page, '$.axes[0].to', 3);
+      await fill(page, '$.axes[0].points', 7);
+      await page.getByText('7 coarse points').waitFor();
+      await page.getByRole('button', { name: 'Create sweep and start' }).click();
+      await page.waitForURL(/\/sweeps\//);
+      await waitFinished(page);
+      await page.getByTestId('cut-plot').waitFor();
+      await page.getByText(/Exact diagonalization on a finite cluster: zigzag, 4 unit cells, periodic boundaries/).waitFor();
+      const longestEd = await page.evaluate(() => window.__pwLongest);
+      await screenshot('explorer-5-ed-cut');
+      const edCells = await page.locator('[data-testid="cut-plot"] circle[data-point]').count();
+      assert.equal(edCells, 7);
+      console.log(`     longest main-thread task during the sweeps: mean-field ${longestMf.toFixed(0)} ms, ED ${longestEd.toFixed(0)} ms (target < 100 ms)`);
+
+      // 7. Reload: everything is still there (IndexedDB), including the renamed label.
+      await page.reload();
+      await page.getByRole('navigation', { name: 'Main' }).getByRole('link', { name: 'This device' }).click();
+      const items = page.getByRole('list', { name: 'Items' });
+      await items.waitFor();
+      for (const name of ['zigzag e2e', 'zigzag mean-field grid', 'zigzag ED cut']) await items.getByRole('link', { name }).first().waitFor();
+      assert.equal(await items.getByRole('listitem').count(), 5, 'one model, two sweeps, two maps');
+      await screenshot('explorer-6-this-device');
+      await page.goto(mfSweepUrl);
+      await page.getByTestId('legend-name').filter({ hasText: 'vortex liquid (renamed)' }).waitFor();
+      assert.equal(await page.locator('[data-testid="phase-map"] [data-point]').count(), 20);
+      await page.getByTestId('points-table').waitFor();
+      await screenshot('explorer-7-after-reload');
+      await writeFile(join(screenshotDir, 'explorer-figures.txt'), `initial JS gzipped: ${(gz / 1024).toFixed(1)} kB\nlongest task MF: ${longestMf.toFixed(0)} ms\nlongest task ED: ${longestEd.toFixed(0)} ms\n`);
+    },
+  },
+];
