@@ -6,7 +6,7 @@
  *   npm run bench:mf            (GRID=20 for a quicker run)
  */
 import { Worker, isMainThread, parentPort, workerData } from 'node:worker_threads';
-import { availableParallelism } from 'node:os';
+import { availableParallelism, loadavg } from 'node:os';
 import { solveMeanField, type MeanFieldWarmStart } from '../src/meanfield/gutzwiller.js';
 import type { ModelSpec } from '../src/model/types.js';
 
@@ -44,8 +44,9 @@ function solveRow(row: number): { energies: number[]; lowAgreement: number } {
   return { energies, lowAgreement };
 }
 
-async function runOn(workers: number): Promise<{ seconds: number; lowAgreement: number }> {
+async function runOn(workers: number): Promise<{ seconds: number; cpuSeconds: number; lowAgreement: number }> {
   const t0 = performance.now();
+  const c0 = process.cpuUsage(); // process-wide: includes the worker threads
   const rows = Array.from({ length: GRID }, (_, r) => r);
   let lowAgreement = 0;
   await Promise.all(
@@ -62,15 +63,22 @@ async function runOn(workers: number): Promise<{ seconds: number; lowAgreement: 
       worker.on('exit', (code) => (code === 0 ? resolve() : reject(new Error(`worker exited with ${code}`))));
     })),
   );
-  return { seconds: (performance.now() - t0) / 1000, lowAgreement };
+  const c = process.cpuUsage(c0);
+  return { seconds: (performance.now() - t0) / 1000, cpuSeconds: (c.user + c.system) / 1e6, lowAgreement };
 }
 
 if (isMainThread) {
   const points = GRID * GRID;
   console.log(`mean-field benchmark: ${GRID}×${GRID} grid, zigzag strip, 6-site supercell, 8 starts/point, ${availableParallelism()} CPUs`);
+  const [load1] = loadavg();
+  console.log(`load average before the run: ${load1.toFixed(2)} (wall figures are only meaningful on an idle machine)`);
   for (const workers of [1, 2]) {
-    const { seconds, lowAgreement } = await runOn(workers);
-    console.log(`${workers} worker${workers > 1 ? 's' : ' '}: ${points} points in ${seconds.toFixed(2)} s = ${(points / seconds).toFixed(1)} points/s (points with < 2 starts at the minimum: ${lowAgreement})`);
+    const { seconds, cpuSeconds, lowAgreement } = await runOn(workers);
+    console.log(
+      `${workers} worker${workers > 1 ? 's' : ' '}: ${points} points in ${seconds.toFixed(2)} s wall = ${(points / seconds).toFixed(1)} points/s; ` +
+        `${cpuSeconds.toFixed(2)} CPU-s = ${(points / cpuSeconds).toFixed(1)} points per CPU-second ` +
+        `(points with < 2 starts at the minimum: ${lowAgreement})`,
+    );
   }
 } else {
   const { rows } = workerData as { rows: number[] };

@@ -250,6 +250,7 @@ describe('Gutzwiller mean-field: ensemble, starts and options', () => {
     const first = solveMeanField(spec, { supercell: 'sqrt3', mu: 0.2, starts: 8 });
     const again = solveMeanField(spec, { supercell: 'sqrt3', mu: 0.2, starts: 1, warm: first.warm });
     expect(again.result.energy).toBeCloseTo(first.result.energy, 8);
+    expect((again.result.extras as { meanField: { winners: string[] } }).meanField.winners).toEqual(['warm']);
     expect(again.result.convergence.iterations).toBeLessThan(first.result.convergence.iterations);
   });
 

@@ -325,8 +325,10 @@ function startStates(problem: MeanFieldProblem, o: Resolved, space: SiteSpace = 
   if (model.sites.some((s) => s.sublattice % 2 === 1)) {
     patterns.push({ label: 'staggered', x: make(() => fill, (s) => Math.PI * (model.sites[s].sublattice % 2)) });
   }
+  // The warm start is always kept; at least a quarter of the starts are random.
   const nRandom = Math.max(o.starts - patterns.length, Math.ceil(o.starts / 4));
-  const kept = patterns.slice(0, Math.max(0, o.starts - nRandom));
+  const warmFirst = o.warm ? 1 : 0;
+  const kept = patterns.slice(0, Math.max(warmFirst, o.starts - nRandom));
   const out = [...kept];
   for (let r = 0; out.length < o.starts; r++) {
     const x = new Float64Array(np);
