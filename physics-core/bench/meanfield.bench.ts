@@ -25,10 +25,6 @@ const model: ModelSpec = {
   ],
 };
 
-interface RowJob {
-  row: number;
-}
-
 function solveRow(row: number): { energies: number[]; lowAgreement: number } {
   const V = (3 * row) / (GRID - 1);
   let warm: MeanFieldWarmStart | undefined;

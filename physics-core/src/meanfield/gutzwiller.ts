@@ -21,7 +21,6 @@ import { evaluateConstant } from '../model/expressions.js';
 import { compileOnSupercellCluster } from './cluster.js';
 import type { CompiledModel, ModelSpec } from '../model/types.js';
 import type { Result } from '../result.js';
-import { RESULT_SPEC_ID } from '../result.js';
 import { mulberry32 } from '../util/random.js';
 import { supercellEnergy } from './energy.js';
 import { lbfgs, type LbfgsOptions } from './lbfgs.js';
