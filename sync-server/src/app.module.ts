@@ -5,10 +5,24 @@ import { ServeStaticModule } from '@nestjs/serve-static';
 import fs from 'node:fs';
 import path from 'node:path';
 import type { AppConfig } from './config/app-config.js';
+import { MODELS } from './database/models.js';
 import { sequelizeOptions } from './database/sequelize-options.js';
+import { HealthController } from './health/health.controller.js';
 import { HealthModule } from './health/health.module.js';
+import { AuthModule } from './auth/auth.module.js';
+import { loadAccountsConfig } from './common/accounts-config.js';
+import { Public } from './common/decorators.js';
+import { ACCOUNT_MODELS } from './common/account-models.js';
+import { SecurityModule } from './common/security.module.js';
+import { MailModule } from './mail/mail.module.js';
+import { MembershipsModule } from './memberships/memberships.module.js';
+import { ProjectsModule } from './projects/projects.module.js';
+import { UsersModule } from './users/users.module.js';
 
 export const appConfig = (config: AppConfig) => registerAs('app', () => config);
+
+// The health report stays public under the app-wide JWT guard (npm start and monitors poll it).
+Public()(HealthController);
 
 /** Paths under /api never fall back to the PWA's index.html: they get the JSON 404. */
 const API_PATHS = /^\/api(\/|$)/;
@@ -17,13 +31,24 @@ const API_PATHS = /^\/api(\/|$)/;
 export class AppModule {
   /** The whole app for one configuration (tests build several side by side). */
   static register(config: AppConfig): DynamicModule {
+    const accounts = config.accounts ?? loadAccountsConfig(config);
     const imports: DynamicModule['imports'] = [
       ConfigModule.forRoot({ isGlobal: true, ignoreEnvFile: true, load: [appConfig(config)] }),
       SequelizeModule.forRootAsync({
         inject: [ConfigService],
-        useFactory: (cs: ConfigService) => sequelizeOptions(cs.getOrThrow<AppConfig>('app').db),
+        useFactory: (cs: ConfigService) => {
+          const options = sequelizeOptions(cs.getOrThrow<AppConfig>('app').db);
+          return { ...options, models: [...MODELS, ...ACCOUNT_MODELS] };
+        },
       }),
       HealthModule,
+      // Accounts, sign-in, projects, members, invitations, mail (the JWT guard is app-wide: see AuthModule).
+      SecurityModule.register(accounts),
+      UsersModule,
+      AuthModule,
+      MailModule,
+      ProjectsModule,
+      MembershipsModule,
     ];
     if (fs.existsSync(path.join(config.pwaDist, 'index.html'))) {
       // Static files first; any other GET outside /api gets index.html (client-side routes).
