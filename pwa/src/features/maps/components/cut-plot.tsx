@@ -17,7 +17,7 @@ interface Props {
   width?: number;
 }
 
-const M = { top: 28, right: 16, bottom: 44, left: 64 };
+const M = { top: 28, right: 16, bottom: 44, left: 84 };
 const INK = '#1d2640';
 
 export const CutPlot = forwardRef<SVGSVGElement, Props>(function CutPlot({ sweep, cells, observable, selectedKeys, onSelect, colorOf, width = 620 }, ref) {
@@ -65,7 +65,7 @@ export const CutPlot = forwardRef<SVGSVGElement, Props>(function CutPlot({ sweep
           </circle>
         ))}
         <AxisBottom top={ih} scale={x} numTicks={6} stroke={INK} tickStroke={INK} label={a.parameter} labelProps={{ fontSize: 12, fill: INK, textAnchor: 'middle', fontFamily: 'Manrope, sans-serif' }} tickLabelProps={{ fontSize: 10, fill: INK, fontFamily: 'Manrope, sans-serif' }} />
-        <AxisLeft scale={y} numTicks={5} stroke={INK} tickStroke={INK} label={observable} labelOffset={40} labelProps={{ fontSize: 12, fill: INK, textAnchor: 'middle', fontFamily: 'Manrope, sans-serif' }} tickLabelProps={{ fontSize: 10, fill: INK, fontFamily: 'Manrope, sans-serif' }} />
+        <AxisLeft scale={y} numTicks={5} stroke={INK} tickStroke={INK} label={observable} labelOffset={56} labelProps={{ fontSize: 12, fill: INK, textAnchor: 'middle', fontFamily: 'Manrope, sans-serif' }} tickLabelProps={{ fontSize: 10, fill: INK, fontFamily: 'Manrope, sans-serif' }} />
       </Group>
     </svg>
   );
