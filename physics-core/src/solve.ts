@@ -22,6 +22,13 @@ export interface SolveOptions {
  * `provenance.modelHash` with the canonical hash of the (override-applied) spec.
  */
 export function solve(model: ModelSpec | CompiledModel, options: SolveOptions = {}): Result {
+  if (options.method === 'meanfield' && !isCompiled(model)) {
+    // Mean-field compiles its own periodic cluster and takes the filling as a density.
+    const overrides = options.overrides ?? {};
+    const mf = solveMeanField(model, options.meanfield, overrides).result;
+    mf.provenance.modelHash = hashModel({ ...model, parameters: { ...model.parameters, ...overrides } });
+    return mf;
+  }
   const compiled = isCompiled(model) ? model : compileModel(model, options.overrides ?? {});
   const method = options.method ?? 'ed';
   let result: Result;

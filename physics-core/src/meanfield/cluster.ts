@@ -11,7 +11,9 @@ import { resolveSupercell, type Supercell, type SupercellSpec } from './supercel
 
 /** Validates `spec` and returns its lattice's primitive translations. */
 export function specTranslations(spec: ModelSpec): number[][] {
-  parseModelSpec(spec); // clear errors (JSON paths) before any geometry
+  // Clear errors (JSON paths) before any geometry; mean-field treats the filling as a density,
+  // so it need not give a whole number of particles on the spec's cluster.
+  parseModelSpec(spec, { integerParticles: false });
   const translations = unitCellOf(spec.lattice).translations;
   if (!Array.isArray(spec.lattice.size) || spec.lattice.size.length !== translations.length) {
     throw new PhasewrightError(`needs ${translations.length} entries for a ${spec.lattice.kind} lattice`, 'spec', '$.lattice.size');

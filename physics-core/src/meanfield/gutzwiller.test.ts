@@ -263,6 +263,12 @@ describe('Gutzwiller mean-field: ensemble, starts and options', () => {
     expect(Boolean(result.warnings?.some((w) => /starts reached/.test(w)))).toBe(low);
   });
 
+  it('takes the filling as a density: 1/2 on a 3×3 triangular cluster (4.5 particles) is fine for mean-field', () => {
+    const spec: ModelSpec = { ...xxzSpec('square', [4, 4], 1), lattice: { kind: 'triangular', size: [3, 3], boundary: ['periodic', 'periodic'] } };
+    const { result } = solveMeanField(spec, { supercell: 'sqrt3', starts: 4 });
+    expect((result.extras as { meanField: { density: number } }).meanField.density).toBeCloseTo(0.5, 6);
+  });
+
   it('rejects bad options and supercells with the field named', () => {
     const spec = xxzSpec('chain', [8], 1);
     expect(() => solveMeanField(spec, { starts: 0 })).toThrow(/\$\.solver\.starts/);
