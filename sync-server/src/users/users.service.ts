@@ -1,6 +1,6 @@
 import { Injectable, NotFoundException } from '@nestjs/common';
 import { InjectModel } from '@nestjs/sequelize';
-import type { Transaction } from 'sequelize';
+import { type Transaction, UniqueConstraintError } from 'sequelize';
 import type { AuthUser, SiteRole } from '../common/auth-user.js';
 import { fieldError } from '../common/errors.js';
 import { newId, normalizeEmail } from '../common/secrets.js';
@@ -32,23 +32,30 @@ export class UsersService {
     return user;
   }
 
-  /** Create an account; a taken address is a 400 naming `email` (checked inside the transaction). */
+  /**
+   * Create an account; a taken address is a 400 naming `email`. The unique index decides (a locking
+   * pre-check would make concurrent registrations deadlock on InnoDB's gap locks).
+   */
   async create(input: NewUser, transaction: Transaction): Promise<User> {
     const email = normalizeEmail(input.email);
-    if (await this.users.findOne({ where: { email }, transaction, lock: transaction.LOCK.UPDATE })) {
-      throw fieldError('email', 'email is already registered');
+    const taken = () => fieldError('email', 'email is already registered');
+    if (await this.users.findOne({ where: { email }, transaction })) throw taken();
+    try {
+      return await this.users.create(
+        {
+          id: newId(),
+          email,
+          displayName: input.displayName,
+          passwordHash: input.passwordHash,
+          siteRole: input.siteRole ?? 'member',
+          tokenVersion: 0,
+        },
+        { transaction },
+      );
+    } catch (err) {
+      if (err instanceof UniqueConstraintError) throw taken();
+      throw err;
     }
-    return this.users.create(
-      {
-        id: newId(),
-        email,
-        displayName: input.displayName,
-        passwordHash: input.passwordHash,
-        siteRole: input.siteRole ?? 'member',
-        tokenVersion: 0,
-      },
-      { transaction },
-    );
   }
 
   async updateDisplayName(id: string, displayName: string): Promise<User> {
