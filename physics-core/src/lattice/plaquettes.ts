@@ -184,10 +184,8 @@ function shortestCycles(sites: Site[], nn: Bond[], out: Half[][], scale: number,
     }
     const first: Half = { bond: b.index, from: b.from, to: b.to, dx: b.dx, dy: b.dy, sign: 1, angle: 0 };
     let cyc = [first, ...loop];
-    let g = loopGeometry(sites, cyc);
-    if (g.area < 0) {
+    if (loopGeometry(sites, cyc).area < 0) {
       cyc = cyc.reverse().map((e) => ({ ...e, from: e.to, to: e.from, dx: -e.dx, dy: -e.dy, sign: (-e.sign) as 1 | -1 }));
-      g = loopGeometry(sites, cyc);
     }
     const key = cyc.map((e) => e.bond).sort((p, q) => p - q).join(',');
     if (seen.has(key)) continue;

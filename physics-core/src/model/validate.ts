@@ -49,7 +49,6 @@ export const MAX_SPEC_SITES = 1_000_000;
 const IDENT = /^[A-Za-z_][A-Za-z0-9_]*$/;
 
 const isObject = (v: unknown): v is Record<string, unknown> => typeof v === 'object' && v !== null && !Array.isArray(v);
-const kinds = (xs: readonly string[]) => xs.map((x) => `'${x}'`).join(', ');
 
 function unknownFields(obj: Record<string, unknown>, allowed: string[], path: string, issues: SpecIssue[]): void {
   for (const k of Object.keys(obj))
@@ -170,7 +169,7 @@ function checkLattice(lat: unknown, values: Record<string, number>, issues: Spec
     return bad;
   }
   let ok = true;
-  let nBasis = 1;
+  let nBasis: number;
   let dim: number;
   if (kind === 'custom') {
     const cu = checkCustom(lat.custom, issues);
