@@ -56,6 +56,26 @@ export function toErrorBody(exception: unknown): HttpErrorBody {
   };
 }
 
+interface DriverError {
+  sqlMessage?: string;
+  errno?: number;
+  sqlState?: string;
+}
+
+/**
+ * What the log says about an unexpected failure. Database errors name the database's own message,
+ * errno and SQL state, but never the statement or its parameters (they may hold password hashes).
+ */
+export function describeFailure(exception: unknown): string {
+  if (!(exception instanceof Error)) return String(exception);
+  const parent = (exception as { parent?: DriverError }).parent;
+  const stack = (exception.stack ?? '').split('\n').slice(1).join('\n');
+  if (parent && typeof parent.sqlMessage === 'string') {
+    return `${exception.name}: ${parent.sqlMessage} (errno ${parent.errno ?? '?'}, SQLSTATE ${parent.sqlState ?? '?'})\n${stack}`;
+  }
+  return exception.stack ?? `${exception.name}: ${exception.message}`;
+}
+
 /** The one global exception filter: every error, including 404 on unknown /api routes, gets one shape. */
 @Catch()
 export class AllExceptionsFilter implements ExceptionFilter {
@@ -65,7 +85,7 @@ export class AllExceptionsFilter implements ExceptionFilter {
     const res = host.switchToHttp().getResponse<Response>();
     const body = toErrorBody(exception);
     if (body.statusCode >= 500) {
-      this.logger.error(exception instanceof Error ? (exception.stack ?? exception.message) : String(exception));
+      this.logger.error(describeFailure(exception));
     }
     if (res.headersSent) return;
     res.status(body.statusCode).json(body);
