@@ -16,6 +16,7 @@ import { structureFactor } from '../observables/structure-factor.js';
 import { condensateFraction, momentumDistribution, oneBodyDensityMatrix } from '../observables/one-body.js';
 import { bondCurrents } from '../observables/currents.js';
 import { plaquetteObservables } from '../observables/plaquettes.js';
+import { classifyPoint } from '../classify/phases.js';
 
 export type EdObservable = 'densities' | 'structure-factor' | 'one-body' | 'currents' | 'plaquettes';
 export const ED_OBSERVABLES: readonly EdObservable[] = ['densities', 'structure-factor', 'one-body', 'currents', 'plaquettes'];
@@ -231,6 +232,8 @@ export class EdSolver {
       extras,
       ...(warnings.length ? { warnings } : {}),
     };
+    // Same classifier as mean-field points, with its ED thresholds (S(q), condensate fraction, currents, chirality).
+    result.label = classifyPoint(result).label;
     return { result, vectors: eig.vectors, manifold, operator: op };
   }
 }

@@ -6,7 +6,7 @@
  * point-detail view; the ED ground state comes back as a transferred buffer.
  */
 import { expose, transfer } from 'comlink';
-import { EdSolver, classifyPoint, compileModel, estimateHilbertDimension, hashModel, runSegment, solvePoint, type PointEvent, type PointOutcome, type PointRequest, type Result, type SegmentJob } from '@phasewright/physics-core';
+import { EdSolver, compileModel, estimateHilbertDimension, hashModel, runSegment, solvePoint, type PointEvent, type PointRequest, type Result, type SegmentJob } from '@phasewright/physics-core';
 
 export interface DetailAnswer {
   result: Result;
@@ -14,16 +14,9 @@ export interface DetailAnswer {
   groundState?: Float64Array;
 }
 
-/** physics-core's point solver, with the core's classifier's label added where the solver gives none (ED). */
-function labelledSolvePoint(request: PointRequest, warm: unknown): PointOutcome {
-  const outcome = solvePoint(request, warm);
-  if (!outcome.result.label) outcome.result.label = classifyPoint(outcome.result).label;
-  return outcome;
-}
-
 export const sweepWorkerApi = {
   async runSegment(job: SegmentJob, onEvent: (event: PointEvent) => void): Promise<void> {
-    await runSegment(job, labelledSolvePoint, onEvent);
+    await runSegment(job, solvePoint, onEvent);
   },
 
   /**
