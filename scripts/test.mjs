@@ -111,7 +111,9 @@ async function browserTests(settings, env) {
   await dbTask('seed', e2eDb);
   const port = await freePort();
   const logFile = path.join(reportsDir, 'e2e-server.log');
-  const server = await startServer({ port, env: { ...env, PW_DB_NAME: e2eDb.database }, logFile });
+  // Every browser test signs in from 127.0.0.1: lift the per-address limits (their own tests prove them).
+  const limits = { PW_RATE_LIMIT_SIGN_IN: '10000', PW_RATE_LIMIT_REGISTER: '10000', PW_RATE_LIMIT_RESET: '10000' };
+  const server = await startServer({ port, env: { ...env, ...limits, PW_DB_NAME: e2eDb.database }, logFile });
   cleanups.push(server.stop);
   info(`server under test at ${server.url} (log: ${path.relative(repoRoot, logFile)})`);
   try {
