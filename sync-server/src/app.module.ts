@@ -18,6 +18,8 @@ import { MailModule } from './mail/mail.module.js';
 import { MembershipsModule } from './memberships/memberships.module.js';
 import { ProjectsModule } from './projects/projects.module.js';
 import { UsersModule } from './users/users.module.js';
+import { MapsModule } from './maps/maps.module.js';
+import { SyncModule } from './sync/sync.module.js';
 
 export const appConfig = (config: AppConfig) => registerAs('app', () => config);
 
@@ -49,6 +51,9 @@ export class AppModule {
       MailModule,
       ProjectsModule,
       MembershipsModule,
+      // Map sync, reviews, spot-checks, uploads, exports.
+      MapsModule,
+      SyncModule,
     ];
     if (fs.existsSync(path.join(config.pwaDist, 'index.html'))) {
       // Static files first; any other GET outside /api gets index.html (client-side routes).

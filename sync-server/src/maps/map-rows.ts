@@ -1,0 +1,60 @@
+import { createHash } from 'node:crypto';
+import { canonicalJson, MAP_SPEC_ID, type MapPoint, type MapProvenance, type PhaseMap, type SweepSpec } from '@phasewright/physics-core';
+
+/** A row of `maps` as the services read it (JSON columns still as text). */
+export interface MapRow {
+  pk: number;
+  projectId: string;
+  id: string;
+  identity: string;
+  method: 'ed' | 'meanfield';
+  name: string | null;
+  sweep: string;
+  provenance: string;
+  pointCount: number;
+  pointsDigest: string;
+  seq: number;
+  createdBy: string | null;
+  updatedBy: string | null;
+  createdAt: Date;
+  updatedAt: Date;
+}
+
+export const MAP_COLUMNS =
+  'pk, project_id AS projectId, id, identity, method, name, sweep, provenance, point_count AS pointCount, points_digest AS pointsDigest, ' +
+  'seq, created_by AS createdBy, updated_by AS updatedBy, created_at AS createdAt, updated_at AS updatedAt';
+
+/** Numbers come back from BIGINT columns as bigint or string depending on the driver settings. */
+export function normaliseMapRow(raw: Record<string, unknown>): MapRow {
+  return { ...(raw as unknown as MapRow), pk: Number(raw.pk), seq: Number(raw.seq), pointCount: Number(raw.pointCount) };
+}
+
+export const sha256 = (text: string): string => createHash('sha256').update(text, 'utf8').digest('hex');
+
+/** Stored form of a point: its canonical JSON (physics-core) and that text's SHA-256. */
+export function pointText(point: MapPoint): { text: string; hash: string } {
+  const text = canonicalJson(point);
+  return { text, hash: sha256(text) };
+}
+
+/**
+ * Digest of a map's point set: SHA-256 of the lines `key<TAB>sha256(canonical point)\n`, sorted by
+ * key. Any added, removed or changed point changes it; verdicts record it to notice new points.
+ */
+export function pointsDigest(entries: Iterable<[string, string]>): string {
+  const sorted = [...entries].sort(([a], [b]) => (a < b ? -1 : a > b ? 1 : 0));
+  const h = createHash('sha256');
+  for (const [key, hash] of sorted) h.update(`${key}\t${hash}\n`, 'utf8');
+  return h.digest('hex');
+}
+
+/** The PhaseMap of a stored map with the given points. */
+export function assembleMap(row: MapRow, points: Record<string, MapPoint>): PhaseMap {
+  return {
+    spec: MAP_SPEC_ID,
+    id: row.identity,
+    sweep: JSON.parse(row.sweep) as SweepSpec,
+    points,
+    provenance: JSON.parse(row.provenance) as MapProvenance,
+  };
+}

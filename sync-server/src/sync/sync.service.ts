@@ -1,0 +1,394 @@
+import { BadRequestException, ConflictException, Inject, Injectable, PayloadTooLargeException } from '@nestjs/common';
+import { InjectConnection } from '@nestjs/sequelize';
+import {
+  CORE_VERSION,
+  canonicalJson,
+  mapIdentity,
+  mergeMaps,
+  parseMap,
+  parseModelSpec,
+  parseSweepSpec,
+  type MapPoint,
+  type PhaseMap,
+  SpecError,
+} from '@phasewright/physics-core';
+import { QueryTypes, Transaction } from 'sequelize';
+import type { Sequelize } from 'sequelize-typescript';
+import type { ProjectAccess } from '../common/auth-user.js';
+import { assembleMap, MAP_COLUMNS, type MapRow, normaliseMapRow, pointsDigest, pointText } from '../maps/map-rows.js';
+import { MapsService } from '../maps/maps.service.js';
+import type { PullChange, PullResponse, PushResponse, PushResult } from './dto/sync.dto.js';
+import { SYNC_CONFIG, type SyncConfig } from './sync-config.js';
+import {
+  type ChangeInput,
+  checkEnvelope,
+  checkHumanRecord,
+  checkPointsOnSweep,
+  inputError,
+  type InputIssue,
+  pointsIn,
+  type RecordKind,
+  specIssues,
+} from './sync-input.js';
+
+/** A change after the checks that need no database (maps parsed by physics-core). */
+type Prepared = { change: ChangeInput; index: number; map?: PhaseMap };
+
+const POINT_ROWS_PER_INSERT = 500;
+const DEADLOCK = /deadlock|lock wait timeout/i;
+
+/** Push and pull of a project's models, sweeps, maps, points, annotations and notes. */
+@Injectable()
+export class SyncService {
+  constructor(
+    @InjectConnection() private readonly sequelize: Sequelize,
+    @Inject(SYNC_CONFIG) private readonly config: SyncConfig,
+    private readonly maps: MapsService,
+  ) {}
+
+  /**
+   * Applies a batch in one transaction, or replays the stored response of a batch already
+   * applied. Pushes of one project are serialised by a row lock on its change counter, so merges
+   * of concurrent pushes see each other's points.
+   */
+  async push(access: ProjectAccess, userId: string, body: unknown, contentLength: number | undefined): Promise<{ response: PushResponse; replayed: boolean }> {
+    if (contentLength !== undefined && contentLength > this.config.maxBatchBytes) {
+      throw new PayloadTooLargeException({
+        message: `This push is ${contentLength} bytes; the limit is ${this.config.maxBatchBytes} bytes per batch (PW_SYNC_MAX_BATCH_BYTES): push the map in several batches (a "map" change, then "points" changes)`,
+        details: { bytes: contentLength, limit: this.config.maxBatchBytes },
+      });
+    }
+    const input = checkEnvelope(body, this.config.maxChangesPerBatch);
+    const points = input.changes.reduce((n, c) => n + pointsIn(c), 0);
+    if (points > this.config.maxPointsPerBatch) {
+      throw new PayloadTooLargeException({
+        message: `This batch carries ${points} points; the limit is ${this.config.maxPointsPerBatch} points per batch (PW_SYNC_MAX_POINTS_PER_BATCH): split the points over several batches`,
+        details: { points, limit: this.config.maxPointsPerBatch },
+      });
+    }
+    const prepared = this.prepare(input.changes);
+    for (let attempt = 1; ; attempt++) {
+      try {
+        return await this.sequelize.transaction({ isolationLevel: Transaction.ISOLATION_LEVELS.READ_COMMITTED }, (tx) => this.apply(access.projectId, userId, input.batchId, prepared, tx));
+      } catch (error) {
+        if (attempt < 4 && error instanceof Error && DEADLOCK.test(error.message)) continue;
+        throw error;
+      }
+    }
+  }
+
+  /** Checks that need no database: models and sweeps by physics-core, maps by parseMap + identity + sweep domain. */
+  private prepare(changes: ChangeInput[]): Prepared[] {
+    const issues: InputIssue[] = [];
+    const out = changes.map((change, index): Prepared => {
+      const path = `changes[${index}].data`;
+      const p: Prepared = { change, index };
+      const spec = (check: () => unknown, at: string) => {
+        try {
+          check();
+        } catch (error) {
+          if (error instanceof SpecError) issues.push(...specIssues(error, at));
+          else throw error;
+        }
+      };
+      switch (change.kind) {
+        case 'model':
+          if (change.data.spec !== undefined) spec(() => parseModelSpec(change.data.spec, { integerParticles: false }), `${path}.spec`);
+          break;
+        case 'sweep':
+          if (change.data.spec !== undefined) spec(() => parseSweepSpec(change.data.spec), `${path}.spec`);
+          break;
+        case 'annotation':
+        case 'note':
+          issues.push(...checkHumanRecord(change.kind, change.data, path));
+          break;
+        case 'map': {
+          const before = issues.length;
+          spec(() => (p.map = parseMap(change.data)), path);
+          if (issues.length > before || !p.map) break;
+          issues.push(...checkIdentity(p.map, path));
+          issues.push(...checkPointsOnSweep(p.map, path));
+          break;
+        }
+        case 'points':
+          if (typeof change.data.points !== 'object' || change.data.points === null || Array.isArray(change.data.points)) {
+            issues.push({ path: `${path}.points`, message: 'must be an object of points keyed by point key' });
+          }
+          break;
+      }
+      return p;
+    });
+    if (issues.length > 0) throw inputError(issues);
+    return out;
+  }
+
+  private async apply(projectId: string, userId: string, batchId: string, prepared: Prepared[], tx: Transaction): Promise<{ response: PushResponse; replayed: boolean }> {
+    const q = <T extends object>(sql: string, replacements: unknown[]) => this.sequelize.query<T>(sql, { type: QueryTypes.SELECT, replacements, transaction: tx });
+    const run = (sql: string, replacements: unknown[]) => this.sequelize.query(sql, { replacements, transaction: tx });
+    // The project's change counter, locked until commit: pushes of one project run one at a time.
+    await run('INSERT INTO project_sync_state (project_id, last_seq) VALUES (?, 0) ON DUPLICATE KEY UPDATE last_seq = last_seq', [projectId]);
+    const [state] = await q<{ lastSeq: number }>('SELECT last_seq AS lastSeq FROM project_sync_state WHERE project_id = ? FOR UPDATE', [projectId]);
+    const done = await q<{ response: string }>('SELECT response FROM sync_batches WHERE project_id = ? AND batch_id = ?', [projectId, batchId]);
+    if (done.length > 0) return { response: JSON.parse(done[0].response) as PushResponse, replayed: true };
+
+    let seq = Number(state.lastSeq);
+    const next = () => ++seq;
+    const results: PushResult[] = [];
+    const conflicts: unknown[] = [];
+    const issues: InputIssue[] = [];
+    for (const p of prepared) {
+      const { change } = p;
+      if (change.kind === 'map' || change.kind === 'points') {
+        const r = await this.applyMap(projectId, userId, p, tx, next, issues);
+        if (r) results.push(r);
+      } else {
+        const r = await this.applyRecord(projectId, userId, p.index, change, change.kind, tx, next, conflicts);
+        if (r) results.push(r);
+      }
+    }
+    if (issues.length > 0) throw inputError(issues);
+    if (conflicts.length > 0) {
+      throw new ConflictException({
+        message: `${conflicts.length} edit${conflicts.length > 1 ? 's were' : ' was'} based on a stale revision; nothing in this batch was stored. Each conflict carries your version and the server's: merge them and push again with the server's revision as baseRevision`,
+        details: { conflicts },
+      });
+    }
+    await run('UPDATE project_sync_state SET last_seq = ? WHERE project_id = ?', [seq, projectId]);
+    const response: PushResponse = { batchId, cursor: seq, results };
+    await run('INSERT INTO sync_batches (project_id, batch_id, user_id, response) VALUES (?, ?, ?, ?)', [projectId, batchId, userId, JSON.stringify(response)]);
+    return { response, replayed: false };
+  }
+
+  private async applyRecord(
+    projectId: string,
+    userId: string,
+    index: number,
+    change: ChangeInput,
+    kind: RecordKind,
+    tx: Transaction,
+    next: () => number,
+    conflicts: unknown[],
+  ): Promise<PushResult | undefined> {
+    const rows = await this.sequelize.query<{ kind: string; revision: number; data: string; updatedBy: string | null; updatedAt: Date }>(
+      'SELECT kind, revision, data, updated_by AS updatedBy, updated_at AS updatedAt FROM sync_records WHERE project_id = ? AND id = ? FOR UPDATE',
+      { type: QueryTypes.SELECT, replacements: [projectId, change.id], transaction: tx },
+    );
+    const text = canonicalJson(change.data);
+    const current = rows[0];
+    if (!current) {
+      if ((change.baseRevision ?? 0) !== 0) {
+        conflicts.push({ kind, id: change.id, baseRevision: change.baseRevision, yours: change.data, theirs: null, reason: 'the server has no revision of this record' });
+        return undefined;
+      }
+      const s = next();
+      await this.sequelize.query('INSERT INTO sync_records (project_id, id, kind, revision, seq, data, updated_by) VALUES (?, ?, ?, 1, ?, ?, ?)', {
+        replacements: [projectId, change.id, kind, s, text, userId],
+        transaction: tx,
+      });
+      return { kind, id: change.id, status: 'created', revision: 1, seq: s };
+    }
+    if (current.kind !== kind) {
+      throw inputError([{ path: `changes[${index}].kind`, message: `record ${change.id} is a ${current.kind}, not a ${kind}` }]);
+    }
+    if (current.data === text) return { kind, id: change.id, status: 'unchanged', revision: current.revision };
+    if (change.baseRevision !== current.revision) {
+      conflicts.push({
+        kind,
+        id: change.id,
+        baseRevision: change.baseRevision ?? null,
+        yours: change.data,
+        theirs: { revision: current.revision, data: JSON.parse(current.data) as unknown, updatedBy: current.updatedBy, updatedAt: current.updatedAt },
+      });
+      return undefined;
+    }
+    const s = next();
+    await this.sequelize.query('UPDATE sync_records SET revision = revision + 1, seq = ?, data = ?, updated_by = ?, updated_at = CURRENT_TIMESTAMP(3) WHERE project_id = ? AND id = ?', {
+      replacements: [s, text, userId, projectId, change.id],
+      transaction: tx,
+    });
+    return { kind, id: change.id, status: 'updated', revision: current.revision + 1, seq: s };
+  }
+
+  /**
+   * A map (metadata and points) or more points of a stored map: loads the stored points of the
+   * same keys, merges with physics-core's mergeMaps, writes the points whose merged result changed.
+   */
+  private async applyMap(projectId: string, userId: string, p: Prepared, tx: Transaction, next: () => number, issues: InputIssue[]): Promise<PushResult | undefined> {
+    const { change } = p;
+    const path = `changes[${p.index}].data`;
+    const find = async (column: 'id' | 'identity', value: string) => {
+      const rows = await this.sequelize.query<Record<string, unknown>>(`SELECT ${MAP_COLUMNS} FROM maps WHERE project_id = ? AND ${column} = ? FOR UPDATE`, {
+        type: QueryTypes.SELECT,
+        replacements: [projectId, value],
+        transaction: tx,
+      });
+      return rows[0] ? normaliseMapRow(rows[0]) : undefined;
+    };
+    const byId = await find('id', change.id);
+    let incoming: PhaseMap;
+    let row: MapRow | undefined;
+    if (change.kind === 'points') {
+      if (!byId) {
+        issues.push({ path: `changes[${p.index}].id`, message: `no map ${change.id} in this project; push the map (kind "map") first, in this batch or an earlier one` });
+        return undefined;
+      }
+      row = byId;
+      try {
+        incoming = parseMap({ ...assembleMap(byId, {}), points: change.data.points });
+      } catch (error) {
+        if (!(error instanceof SpecError)) throw error;
+        issues.push(...specIssues(error, path));
+        return undefined;
+      }
+      const off = checkPointsOnSweep(incoming, path);
+      if (off.length > 0) {
+        issues.push(...off);
+        return undefined;
+      }
+    } else {
+      incoming = p.map as PhaseMap;
+      if (byId && byId.identity !== incoming.id) {
+        issues.push({ path: `${path}.id`, message: `map ${change.id} holds identity ${byId.identity.slice(0, 12)}…, this one is ${incoming.id.slice(0, 12)}… (another model, sweep, solver options or core version): give it a new id` });
+        return undefined;
+      }
+      row = byId ?? (await find('identity', incoming.id));
+    }
+
+    const keys = Object.keys(incoming.points);
+    let merged: PhaseMap;
+    let stored: Record<string, MapPoint> = {};
+    if (row) {
+      stored = await this.maps.points(row.pk, keys, tx);
+      merged = mergeMaps([assembleMap(row, stored), incoming]);
+    } else {
+      merged = mergeMaps([incoming]);
+    }
+    const sweepText = canonicalJson(merged.sweep);
+    const provenanceText = canonicalJson(merged.provenance);
+    let pk: number;
+    if (!row) {
+      const s = next();
+      await this.sequelize.query(
+        'INSERT INTO maps (project_id, id, identity, method, name, sweep, provenance, point_count, points_digest, seq, created_by, updated_by) VALUES (?, ?, ?, ?, ?, ?, ?, 0, ?, ?, ?, ?)',
+        { replacements: [projectId, change.id, merged.id, merged.sweep.method, merged.sweep.name ?? null, sweepText, provenanceText, pointsDigest([]), s, userId, userId], transaction: tx },
+      );
+      const [created] = await this.sequelize.query<{ pk: number }>('SELECT pk FROM maps WHERE project_id = ? AND id = ?', { type: QueryTypes.SELECT, replacements: [projectId, change.id], transaction: tx });
+      pk = Number(created.pk);
+    } else {
+      pk = row.pk;
+    }
+
+    // Points whose merged result differs from what is stored.
+    let added = 0;
+    let updated = 0;
+    let disputed = 0;
+    const writes: unknown[][] = [];
+    for (const key of keys) {
+      const point = merged.points[key];
+      const { text, hash } = pointText(point);
+      const before = stored[key];
+      if (before !== undefined && canonicalJson(before) === text) continue;
+      if (before === undefined) added++;
+      else updated++;
+      if (point.disputed?.length) disputed++;
+      writes.push([pk, key, projectId, next(), hash, point.energy, point.label?.id ?? null, point.disputed?.length ? 1 : 0, text]);
+    }
+    for (let i = 0; i < writes.length; i += POINT_ROWS_PER_INSERT) {
+      const chunk = writes.slice(i, i + POINT_ROWS_PER_INSERT);
+      await this.sequelize.query(
+        `INSERT INTO map_points (map_pk, point_key, project_id, seq, hash, energy, label_id, disputed, data) VALUES ${chunk.map(() => '(?, ?, ?, ?, ?, ?, ?, ?, ?)').join(', ')} ` +
+          'ON DUPLICATE KEY UPDATE seq = VALUES(seq), hash = VALUES(hash), energy = VALUES(energy), label_id = VALUES(label_id), disputed = VALUES(disputed), data = VALUES(data)',
+        { replacements: chunk.flat(), transaction: tx },
+      );
+    }
+
+    const metadataChanged = !row || row.sweep !== sweepText || row.provenance !== provenanceText;
+    if (writes.length > 0 || metadataChanged) {
+      const hashes = await this.sequelize.query<{ k: string; h: string }>('SELECT point_key AS k, hash AS h FROM map_points WHERE map_pk = ?', { type: QueryTypes.SELECT, replacements: [pk], transaction: tx });
+      const digest = pointsDigest(hashes.map((r) => [r.k, r.h]));
+      await this.sequelize.query(
+        'UPDATE maps SET sweep = ?, provenance = ?, name = ?, point_count = ?, points_digest = ?, seq = ?, updated_by = ?, updated_at = CURRENT_TIMESTAMP(3) WHERE pk = ?',
+        { replacements: [sweepText, provenanceText, merged.sweep.name ?? null, hashes.length, digest, next(), userId, pk], transaction: tx },
+      );
+    }
+    const storedAs = row && row.id !== change.id ? row.id : undefined;
+    const status = !row ? 'created' : writes.length > 0 || metadataChanged ? 'merged' : 'unchanged';
+    return { kind: change.kind, id: change.id, status, ...(storedAs ? { storedAs } : {}), points: { received: keys.length, added, updated, unchanged: keys.length - added - updated, disputed } };
+  }
+
+  /** Changes after `after`, oldest first, at most `limit` rows (a points change groups consecutive rows of one map). */
+  async pull(projectId: string, after: number, limit: number): Promise<PullResponse> {
+    if (limit > this.config.maxPullLimit) throw new BadRequestException({ message: `limit must be at most ${this.config.maxPullLimit}`, details: [{ path: 'limit', problems: [`limit must not be greater than ${this.config.maxPullLimit}`] }] });
+    return this.sequelize.transaction({ isolationLevel: Transaction.ISOLATION_LEVELS.REPEATABLE_READ }, async (tx) => {
+      const q = <T extends object>(sql: string) => this.sequelize.query<T>(sql, { type: QueryTypes.SELECT, replacements: [projectId, after, limit + 1], transaction: tx });
+      type Item = { seq: number; change: PullChange; mapId?: string; key?: string; point?: MapPoint };
+      const items: Item[] = [];
+      for (const r of await q<{ id: string; kind: RecordKind; revision: number; seq: number; data: string; updatedBy: string | null; updatedAt: Date }>(
+        'SELECT id, kind, revision, seq, data, updated_by AS updatedBy, updated_at AS updatedAt FROM sync_records WHERE project_id = ? AND seq > ? ORDER BY seq LIMIT ?',
+      )) {
+        items.push({ seq: Number(r.seq), change: { seq: Number(r.seq), kind: r.kind, id: r.id, revision: r.revision, data: JSON.parse(r.data) as Record<string, unknown>, updatedBy: r.updatedBy, updatedAt: r.updatedAt } });
+      }
+      for (const raw of await q<Record<string, unknown>>(`SELECT ${MAP_COLUMNS} FROM maps WHERE project_id = ? AND seq > ? ORDER BY seq LIMIT ?`)) {
+        const m = normaliseMapRow(raw);
+        items.push({ seq: m.seq, change: { seq: m.seq, kind: 'map', id: m.id, data: assembleMap(m, {}) as unknown as Record<string, unknown>, pointCount: m.pointCount, pointsDigest: m.pointsDigest, updatedBy: m.updatedBy, updatedAt: m.updatedAt } });
+      }
+      for (const r of await q<{ mapId: string; k: string; seq: number; d: string }>(
+        'SELECT m.id AS mapId, p.point_key AS k, p.seq, p.data AS d FROM map_points p JOIN maps m ON m.pk = p.map_pk WHERE p.project_id = ? AND p.seq > ? ORDER BY p.seq LIMIT ?',
+      )) {
+        items.push({ seq: Number(r.seq), change: undefined as unknown as PullChange, mapId: r.mapId, key: r.k, point: JSON.parse(r.d) as MapPoint });
+      }
+      items.sort((a, b) => a.seq - b.seq);
+      const hasMore = items.length > limit;
+      const page = items.slice(0, limit);
+      const changes: PullChange[] = [];
+      for (const item of page) {
+        if (item.point === undefined) {
+          changes.push(item.change);
+          continue;
+        }
+        const last = changes.at(-1);
+        if (last && last.kind === 'points' && last.id === item.mapId) {
+          (last.data.points as Record<string, MapPoint>)[item.key as string] = item.point;
+          last.seq = item.seq;
+        } else {
+          changes.push({ seq: item.seq, kind: 'points', id: item.mapId as string, data: { points: { [item.key as string]: item.point } } });
+        }
+      }
+      // A map's metadata row is rewritten (new seq) whenever its points change, so it may sort after
+      // points of the same map: send the latest metadata before the first points of a map whose
+      // metadata the client has not seen yet (a repeat of the later change is harmless).
+      const seen = new Set<string>();
+      const missing = new Set<string>();
+      for (const c of changes) {
+        if (c.kind === 'map') seen.add(c.id);
+        else if (c.kind === 'points' && !seen.has(c.id)) missing.add(c.id);
+      }
+      if (missing.size > 0) {
+        const metas = new Map<string, PullChange>();
+        for (const raw of await this.sequelize.query<Record<string, unknown>>(`SELECT ${MAP_COLUMNS} FROM maps WHERE project_id = ? AND id IN (?) AND seq > ?`, { type: QueryTypes.SELECT, replacements: [projectId, [...missing], after], transaction: tx })) {
+          const m = normaliseMapRow(raw);
+          metas.set(m.id, { seq: m.seq, kind: 'map', id: m.id, data: assembleMap(m, {}) as unknown as Record<string, unknown>, pointCount: m.pointCount, pointsDigest: m.pointsDigest, updatedBy: m.updatedBy, updatedAt: m.updatedAt });
+        }
+        for (let i = 0; i < changes.length; i++) {
+          const meta = changes[i].kind === 'points' ? metas.get(changes[i].id) : undefined;
+          if (meta) {
+            changes.splice(i, 0, meta);
+            metas.delete(meta.id);
+            i++;
+          }
+        }
+      }
+      const [state] = await this.sequelize.query<{ lastSeq: number }>('SELECT last_seq AS lastSeq FROM project_sync_state WHERE project_id = ?', { type: QueryTypes.SELECT, replacements: [projectId], transaction: tx });
+      const cursor = hasMore ? page[page.length - 1].seq : Math.max(after, Number(state?.lastSeq ?? 0));
+      return { changes, cursor, hasMore };
+    });
+  }
+}
+
+/** A map's id must be physics-core's identity of its sweep and core version. */
+function checkIdentity(map: PhaseMap, path: string): InputIssue[] {
+  const expected = mapIdentity(map.sweep, map.provenance.coreVersion);
+  if (expected === map.id) return [];
+  const note = map.provenance.coreVersion !== CORE_VERSION ? ` (computed with core version ${map.provenance.coreVersion}, as the map says)` : '';
+  return [{ path: `${path}.id`, message: `does not match the identity of the map's sweep and core version: expected ${expected}${note}; the map was altered or hashed wrongly` }];
+}
