@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest';
 import { fileURLToPath } from 'node:url';
-import { solveCommand, parseOverrides } from './solve.js';
+import { solveCommand, parseOverrides, parseSupercell } from './solve.js';
 import { PhasewrightError } from '../../src/errors.js';
 
 const example = fileURLToPath(new URL('../../examples/chain-extended.json', import.meta.url));
@@ -22,5 +22,26 @@ describe('phasewright solve', () => {
     expect(() => parseOverrides(['g=x'])).toThrow(PhasewrightError);
     expect(() => solveCommand(example, { method: 'simplex', set: [] })).toThrow(/--method/);
     expect(() => solveCommand(example, { method: 'ed', set: [], states: '0' })).toThrow(/--states/);
+  });
+
+  it('mean-field flags reach the solver: a two-site supercell of the V1 = 3 ring finds the density wave', () => {
+    // Classical XXZ picture (Matsubara & Matsuda, Prog. Theor. Phys. 1956): above V1 = 2J the
+    // checkerboard (no occupied nearest pairs: E/site = 0 with V2 = 0) beats the superfluid (−J/2 + V1/4 per bond).
+    const r = JSON.parse(solveCommand(example, { method: 'meanfield', set: ['V1=3', 'V2=0'], supercell: '2', starts: '4', seed: '3' }));
+    expect(r.method).toBe('meanfield');
+    expect(r.convergence.starts).toBe(4);
+    const densities = r.sites.map((s: { density: number }) => s.density).sort();
+    expect(densities[0]).toBeCloseTo(0, 6);
+    expect(densities[1]).toBeCloseTo(1, 6);
+    expect(r.energyPerSite).toBeCloseTo(0, 7);
+    expect(r.energy).toBeCloseTo(r.energyPerSite * 12, 9);
+  });
+
+  it('parses supercells and names the flag when one is wrong', () => {
+    expect(parseSupercell('2x1')).toEqual([2, 1]);
+    expect(parseSupercell('sqrt3')).toBe('sqrt3');
+    expect(parseSupercell('[[2,1],[-1,1]]')).toEqual([[2, 1], [-1, 1]]);
+    expect(() => parseSupercell('2y1')).toThrow(/--supercell/);
+    expect(() => solveCommand(example, { method: 'meanfield', set: [], starts: '0' })).toThrow(/--starts/);
   });
 });

@@ -10,6 +10,7 @@ import { parseModelSpec } from '../../src/model/validate.js';
 import { solve } from '../../src/solve.js';
 import { ED_OBSERVABLES, type EdObservable } from '../../src/ed/solve-ed.js';
 import type { Method } from '../../src/result.js';
+import type { SupercellSpec } from '../../src/meanfield/supercell.js';
 import { inFile, readJsonFile } from '../io.js';
 
 export interface SolveCommandOptions {
@@ -20,7 +21,25 @@ export interface SolveCommandOptions {
   seed?: string;
   memoryBudget?: string;
   observables?: string;
+  supercell?: string;
+  starts?: string;
+  mu?: string;
   pretty?: boolean;
+}
+
+/** `--supercell 2x1`, `2,2`, `sqrt3` or a JSON list of integer vectors such as `[[2,1],[-1,1]]`. */
+export function parseSupercell(text: string): SupercellSpec {
+  const t = text.trim();
+  if (t === 'sqrt3') return 'sqrt3';
+  if (t.startsWith('[')) {
+    try {
+      return JSON.parse(t) as SupercellSpec;
+    } catch {
+      throw new PhasewrightError(`--supercell: not valid JSON (got "${text}")`, 'usage');
+    }
+  }
+  const counts = t.split(/[x,×]/).map((c) => number(c, '--supercell', (x) => Number.isInteger(x) && x >= 1, 'cell counts such as 2x1, or sqrt3'));
+  return counts;
 }
 
 function number(text: string, flag: string, check: (x: number) => boolean, what: string): number {
@@ -64,8 +83,14 @@ export function solveCommand(file: string, opts: SolveCommandOptions): string {
       : {}),
     ...(observables ? { observables: observables as EdObservable[] } : {}),
   };
+  const meanfield = {
+    ...(opts.supercell !== undefined ? { supercell: parseSupercell(opts.supercell) } : {}),
+    ...(opts.starts !== undefined ? { starts: number(opts.starts, '--starts', (x) => Number.isInteger(x) && x >= 1, 'an integer ≥ 1') } : {}),
+    ...(opts.mu !== undefined ? { mu: number(opts.mu, '--mu', () => true, 'a number') } : {}),
+    ...(opts.seed !== undefined ? { seed: number(opts.seed, '--seed', Number.isInteger, 'an integer') } : {}),
+  };
   const overrides = parseOverrides(opts.set);
-  const result = inFile(file, () => solve(spec, { method, overrides, ed }));
+  const result = inFile(file, () => solve(spec, { method, overrides, ed, meanfield }));
   return JSON.stringify(result, null, opts.pretty ? 2 : undefined);
 }
 
@@ -78,9 +103,12 @@ export function registerSolve(program: Command): void {
     .option('--states <k>', 'ED: lowest eigenstates to compute (≥ 2 gives the gap)')
     .option('--set <name=value>', 'override a parameter (repeatable)', (v: string, acc: string[]) => [...acc, v], [] as string[])
     .option('--tolerance <x>', 'ED: relative Lanczos residual')
-    .option('--seed <n>', 'ED: seed of the Lanczos start vector')
+    .option('--seed <n>', 'seed of the Lanczos start vector (ED) or of the random starts (mean-field)')
     .option('--memory-budget <bytes>', 'ED: memory budget in bytes (default 1.5 GiB)')
     .option('--observables <list>', `ED: comma-separated subset of ${ED_OBSERVABLES.join(',')}`)
+    .option('--supercell <cells>', 'mean-field: supercell as 2x1, 2,2, sqrt3 or a JSON list of integer vectors')
+    .option('--starts <n>', 'mean-field: number of starts (default 8)')
+    .option('--mu <x>', 'mean-field: fixed chemical potential instead of the filling')
     .option('--pretty', 'indent the JSON')
     .action((file: string, opts: SolveCommandOptions) => {
       process.stdout.write(`${solveCommand(file, opts)}\n`);

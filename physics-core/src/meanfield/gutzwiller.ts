@@ -118,6 +118,8 @@ export interface MeanFieldProblem {
   supercell: Supercell;
   /** Target mean density (sites of the user's cluster), or null when μ is fixed. */
   filling: number;
+  /** Sites of the user's lattice (the spec's size): totals in the result are per site × this. */
+  clusterSites: number;
   /** Phase per unit-cell step along each axis (from the spec's twist). */
   twistPerCell: number[];
   /**
@@ -156,6 +158,7 @@ export function prepareMeanField(spec: ModelSpec, options: MeanFieldOptions = {}
     model,
     supercell: structure.supercell,
     filling,
+    clusterSites: nUser,
     twistPerCell,
     compiled: structure.compiled,
     warnings,

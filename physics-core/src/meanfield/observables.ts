@@ -159,9 +159,10 @@ export function meanFieldObservables(
   const result: Result = {
     spec: RESULT_SPEC_ID,
     method: 'meanfield',
-    energy,
+    // Totals are over the spec's own lattice, like ED's: the periodic product state repeated on it.
+    energy: (energy / n) * problem.clusterSites,
     energyPerSite: energy / n,
-    energies: [energy],
+    energies: [(energy / n) * problem.clusterSites],
     gap: null,
     degenerate: false,
     sites: model.sites.map((s, i) => ({ index: i, x: s.x, y: s.y, density: density(i), condensate: [m[3 * i + 1], m[3 * i + 2]] as [number, number] })),
@@ -182,6 +183,7 @@ export function meanFieldObservables(
       meanField: {
         supercell: problem.supercell.matrix,
         sites: n,
+        supercellEnergy: energy,
         mu: out.mu,
         filling: problem.filling,
         density: nbar,
