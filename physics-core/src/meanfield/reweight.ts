@@ -8,50 +8,21 @@
  * this agrees with a fresh compile.
  */
 import { SpecError } from '../errors.js';
-import { compileExpression, evaluateReal, type CompiledExpression } from '../model/expressions.js';
+import { bondVariables, pathVariables, siteVariables, termExpressions } from '../model/compile.js';
 import type { CompiledModel, ModelSpec } from '../model/types.js';
-import { ENTRY_VARIABLES, evaluateParameters } from '../model/validate.js';
+import { evaluateParameters } from '../model/validate.js';
 import type { SupercellModel } from './supercell-model.js';
 
 type Evaluate = (vars: Record<string, number>) => number;
 
-/** Compiled expressions of a spec's terms (depend on the parameter names only). */
+/** Compiled expressions of a spec's terms, bound to parameter values on demand (model/compile.ts's own evaluators). */
 export interface TermEvaluators {
   build(values: Record<string, number>): { amp: Evaluate; phase: Evaluate }[];
 }
 
 export function termEvaluators(spec: ModelSpec): TermEvaluators {
-  const names = ['pi', ...Object.keys(spec.parameters)];
-  const compiled = spec.terms.map((t, k) => {
-    const scope = [...names, ...ENTRY_VARIABLES[t.kind]];
-    const path = `$.terms[${k}]`;
-    return {
-      per: ENTRY_VARIABLES[t.kind],
-      amp: compileExpression(t.amplitude, scope, `${path}.amplitude`),
-      phase: t.phase === undefined ? undefined : compileExpression(t.phase, scope, `${path}.phase`),
-      path,
-    };
-  });
-  const make = (expr: CompiledExpression, base: Record<string, number>, per: string[], path: string): Evaluate => {
-    if (!expr.symbols.some((s) => per.includes(s))) {
-      const v = evaluateReal(expr, base, path, '');
-      return () => v;
-    }
-    const scope: Record<string, number> = { ...base };
-    return (vars) => {
-      for (const k in vars) scope[k] = vars[k];
-      return evaluateReal(expr, scope, path, '');
-    };
-  };
-  return {
-    build(values) {
-      const base = { pi: Math.PI, ...values };
-      return compiled.map((c) => ({
-        amp: make(c.amp, base, c.per, `${c.path}.amplitude`),
-        phase: c.phase ? make(c.phase, base, c.per, `${c.path}.phase`) : () => 0,
-      }));
-    },
-  };
+  const expressions = termExpressions(spec);
+  return { build: (values) => expressions.bind({ pi: Math.PI, ...values }) };
 }
 
 /** Parameter values of `spec` with `overrides` (SpecError on problems). */
@@ -79,9 +50,7 @@ export function reweightSupercellModel(
     const term = compiled.terms[model.hop.term[k]];
     if (term.kind !== 'hop') throw new Error('internal: hop source mismatch');
     const e = term.entries[model.hop.source[k]];
-    const b = lattice.bonds[e.bond];
-    const s = lattice.sites[b.from];
-    const vars = { dx: b.dx, dy: b.dy, x: s.x + b.dx / 2, y: s.y + b.dy / 2, turn: 0 };
+    const vars = bondVariables(lattice, lattice.bonds[e.bond]);
     const ev = evaluators[model.hop.term[k]];
     const a = ev.amp(vars);
     const angle = ev.phase(vars) + phaseOf(model.hop.dcell, k);
@@ -94,9 +63,7 @@ export function reweightSupercellModel(
     const term = compiled.terms[model.cond.term[k]];
     if (term.kind !== 'conditional-hop') throw new Error('internal: conditional-hop source mismatch');
     const e = term.entries[model.cond.source[k]];
-    const p = lattice.paths[e.path];
-    const s = lattice.sites[p.from];
-    const vars = { dx: p.dx, dy: p.dy, x: s.x + p.dx / 2, y: s.y + p.dy / 2, turn: p.turn };
+    const vars = pathVariables(lattice, lattice.paths[e.path]);
     const ev = evaluators[model.cond.term[k]];
     const a = ev.amp(vars);
     const angle = ev.phase(vars) + phaseOf(model.cond.dcell, k);
@@ -107,16 +74,13 @@ export function reweightSupercellModel(
   for (let k = 0; k < interValue.length; k++) {
     const term = compiled.terms[model.inter.term[k]];
     if (term.kind !== 'interaction') throw new Error('internal: interaction source mismatch');
-    const b = lattice.bonds[term.entries[model.inter.source[k]].bond];
-    const s = lattice.sites[b.from];
-    interValue[k] = evaluators[model.inter.term[k]].amp({ dx: b.dx, dy: b.dy, x: s.x + b.dx / 2, y: s.y + b.dy / 2, turn: 0 });
+    interValue[k] = evaluators[model.inter.term[k]].amp(bondVariables(lattice, lattice.bonds[term.entries[model.inter.source[k]].bond]));
   }
   const onsite = new Float64Array(model.nSites);
   for (const o of model.onsiteSources) {
     const term = compiled.terms[o.term];
     if (term.kind !== 'onsite') throw new Error('internal: onsite source mismatch');
-    const s = lattice.sites[term.entries[o.source].i];
-    onsite[o.site] += evaluators[o.term].amp({ x: s.x, y: s.y, sublattice: lattice.basis[s.sublattice].sublattice });
+    onsite[o.site] += evaluators[o.term].amp(siteVariables(lattice, lattice.sites[term.entries[o.source].i]));
   }
   return {
     ...model,

@@ -41,6 +41,7 @@ import type {
   ModelSpec,
   OnsiteEntry,
   Path,
+  Site,
   TermSpec,
 } from './types.js';
 import { ENTRY_VARIABLES, evaluateParameters, parseModelSpec, requiredShells } from './validate.js';
@@ -73,12 +74,12 @@ export function selectPaths(lattice: Lattice, term: Pick<TermSpec, 'neighbors' |
 const twistAngle = (wrap: number[], twist: number[]) => wrap.reduce((s, w, a) => s + w * twist[a], 0);
 
 /** Evaluates an expression once when it reads no per-entry variable, per entry otherwise. */
-function evaluator(
+export function evaluator(
   expr: CompiledExpression,
   base: Record<string, number>,
   perEntry: string[],
   path: string,
-): (vars: Record<string, number>, where: () => string) => number {
+): (vars: Record<string, number>, where?: () => string) => number {
   if (!expr.symbols.some((s) => perEntry.includes(s))) {
     const v = evaluateReal(expr, base, path, '');
     return () => v;
@@ -89,8 +90,55 @@ function evaluator(
   for (const v of perEntry) scope[v] = 0;
   return (vars, where) => {
     for (const k in vars) scope[k] = vars[k];
-    return evaluateReal(expr, scope, path, where);
+    return evaluateReal(expr, scope, path, where ? where() : '');
   };
+}
+
+type EntryEvaluate = (vars: Record<string, number>, where?: () => string) => number;
+
+/**
+ * The compiled amplitude and phase expressions of every term of `spec` (they depend on the
+ * parameter names only); `bind` gives evaluators for parameter values `base` (with `pi`).
+ */
+export function termExpressions(spec: ModelSpec): {
+  bind(base: Record<string, number>): { amp: EntryEvaluate; phase: EntryEvaluate }[];
+} {
+  const names = ['pi', ...Object.keys(spec.parameters)];
+  const compiled = spec.terms.map((t, termIndex) => {
+    const path = `$.terms[${termIndex}]`;
+    const per = ENTRY_VARIABLES[t.kind];
+    const scope = [...names, ...per];
+    return {
+      path,
+      per,
+      amp: compileExpression(t.amplitude, scope, `${path}.amplitude`),
+      phase: t.phase === undefined ? undefined : compileExpression(t.phase, scope, `${path}.phase`),
+    };
+  });
+  return {
+    bind: (base) =>
+      compiled.map((c) => ({
+        amp: evaluator(c.amp, base, c.per, `${c.path}.amplitude`),
+        phase: c.phase ? evaluator(c.phase, base, c.per, `${c.path}.phase`) : () => 0,
+      })),
+  };
+}
+
+/** Per-entry expression variables of a bond (hop, interaction): displacement, midpoint, turn 0. */
+export function bondVariables(lattice: Lattice, b: Bond): Record<string, number> {
+  const s = lattice.sites[b.from];
+  return { dx: b.dx, dy: b.dy, x: s.x + b.dx / 2, y: s.y + b.dy / 2, turn: 0 };
+}
+
+/** Per-entry expression variables of a two-step path (conditional hop): total displacement, midpoint of the ends, turn. */
+export function pathVariables(lattice: Lattice, p: Path): Record<string, number> {
+  const s = lattice.sites[p.from];
+  return { dx: p.dx, dy: p.dy, x: s.x + p.dx / 2, y: s.y + p.dy / 2, turn: p.turn };
+}
+
+/** Per-entry expression variables of a site (onsite): position and sublattice label. */
+export function siteVariables(lattice: Lattice, s: Site): Record<string, number> {
+  return { x: s.x, y: s.y, sublattice: lattice.basis[s.sublattice].sublattice };
 }
 
 /**
@@ -116,20 +164,13 @@ export function compileModel(spec: ModelSpec, overrides: Record<string, number> 
   const pc = parsed.particles;
   const nParticles = pc.count ?? Math.round((pc.filling ?? 0) * nSites);
 
+  const evaluators = termExpressions(parsed).bind(base);
   const terms: CompiledTerm[] = parsed.terms.map((t, termIndex) => {
-    const path = `$.terms[${termIndex}]`;
-    const scope = [...Object.keys(base), ...ENTRY_VARIABLES[t.kind]];
-    const per = ENTRY_VARIABLES[t.kind];
-    const amp = evaluator(compileExpression(t.amplitude, scope, `${path}.amplitude`), base, per, `${path}.amplitude`);
-    const phase =
-      t.phase === undefined
-        ? () => 0
-        : evaluator(compileExpression(t.phase, scope, `${path}.phase`), base, per, `${path}.phase`);
+    const { amp, phase } = evaluators[termIndex];
     switch (t.kind) {
       case 'hop': {
         const entries: HopEntry[] = selectBonds(lattice, t).map((b) => {
-          const s = lattice.sites[b.from];
-          const vars = { dx: b.dx, dy: b.dy, x: s.x + b.dx / 2, y: s.y + b.dy / 2, turn: 0 };
+          const vars = bondVariables(lattice, b);
           const where = () => `bond ${b.index} (${b.from}→${b.to}, dx=${fmt(b.dx)}, dy=${fmt(b.dy)})`;
           const a = amp(vars, where);
           const angle = phase(vars, where) + twistAngle(b.wrap, lattice.twist);
@@ -139,8 +180,7 @@ export function compileModel(spec: ModelSpec, overrides: Record<string, number> 
       }
       case 'conditional-hop': {
         const entries: ConditionalHopEntry[] = selectPaths(lattice, t).map((p) => {
-          const s = lattice.sites[p.from];
-          const vars = { dx: p.dx, dy: p.dy, x: s.x + p.dx / 2, y: s.y + p.dy / 2, turn: p.turn };
+          const vars = pathVariables(lattice, p);
           const where = () => `path ${p.index} (${p.from}→${p.via}→${p.to}, turn=${p.turn})`;
           const a = amp(vars, where);
           const angle = phase(vars, where) + twistAngle(p.wrap, lattice.twist);
@@ -150,8 +190,7 @@ export function compileModel(spec: ModelSpec, overrides: Record<string, number> 
       }
       case 'interaction': {
         const entries: InteractionEntry[] = selectBonds(lattice, t).map((b) => {
-          const s = lattice.sites[b.from];
-          const vars = { dx: b.dx, dy: b.dy, x: s.x + b.dx / 2, y: s.y + b.dy / 2, turn: 0 };
+          const vars = bondVariables(lattice, b);
           const where = () => `bond ${b.index} (${b.from}–${b.to})`;
           return { i: b.from, j: b.to, value: amp(vars, where), bond: b.index };
         });
@@ -160,7 +199,7 @@ export function compileModel(spec: ModelSpec, overrides: Record<string, number> 
       case 'onsite': {
         const entries: OnsiteEntry[] = lattice.sites.map((s) => ({
           i: s.index,
-          value: amp({ x: s.x, y: s.y, sublattice: lattice.basis[s.sublattice].sublattice }, () => `site ${s.index}`),
+          value: amp(siteVariables(lattice, s), () => `site ${s.index}`),
         }));
         return { termIndex, kind: 'onsite', entries };
       }
