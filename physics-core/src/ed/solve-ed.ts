@@ -117,7 +117,12 @@ export class EdSolver {
     // Memory check before anything is allocated.
     const reserved = estimateLanczosBytes(dimension, lanczosOptions.windowSize, states);
     const operatorOptions = { storage: o.storage, memoryBudgetBytes: o.memoryBudgetBytes, reservedBytes: reserved };
-    chooseStorage(estimateOperator(model), checkEdOperatorOptions(operatorOptions));
+    const estimate = estimateOperator(model);
+    const storage = chooseStorage(estimate, checkEdOperatorOptions(operatorOptions));
+    // What the budget leaves after the operator and the vectors that always exist (results, work
+    // vectors, the degeneracy check's) may hold Lanczos vectors instead of recomputing them.
+    const operatorBytes = storage === 'csr' ? estimate.totalCsrBytes : estimate.totalMatrixFreeBytes;
+    const vectorStoreBytes = Math.max(0, o.memoryBudgetBytes - operatorBytes - 16 * dimension * (2 * states + 8));
     let rebuilt = true;
     if (this.operator) rebuilt = this.operator.update(model) === 'rebuilt';
     else this.operator = new EdOperator(model, operatorOptions);
@@ -130,6 +135,7 @@ export class EdSolver {
       ...lanczosOptions,
       startVector: start,
       verifyDegeneracy: o.verifyDegeneracy,
+      vectorStoreBytes,
     });
     const lanczosMs = now() - solveStart;
     const energies = eig.values;
@@ -198,6 +204,7 @@ export class EdSolver {
     extras.restarts = eig.restarts;
     extras.verificationIterations = eig.verificationIterations;
     extras.recoveredStates = eig.recovered;
+    extras.eigenFallbacks = eig.fallbacks;
     extras.timing = { operatorMs: op.buildMs, lanczosMs, observablesMs };
 
     const result: Result = {
