@@ -13,8 +13,10 @@ import { createRoot } from 'react-dom/client';
 import { AppProvider } from './app/provider.js';
 import { AppRouter } from './app/router.js';
 import { registerServiceWorker } from './lib/service-worker.js';
+import { startSyncEngine } from './lib/sync-engine.js';
 
 registerServiceWorker();
+startSyncEngine();
 
 const container = document.getElementById('root');
 if (!container) throw new Error('index.html has no element with id "root"');

@@ -1,7 +1,7 @@
 import { Dexie } from 'dexie';
 import type { MapPoint } from '@phasewright/physics-core';
 import { afterEach, describe, expect, it } from 'vitest';
-import { LOCAL_PROJECT_ID, PhasewrightDb, SCHEMA_V1, newId, pointRow } from './db.js';
+import { LOCAL_PROJECT_ID, PhasewrightDb, SCHEMA_V1, newId, pointRow, queueChange } from './db.js';
 
 function point(label: string | undefined, converged: boolean, V: number): MapPoint {
   return {
@@ -57,7 +57,7 @@ describe('PhasewrightDb', () => {
     expect(Number(s2)).toBeGreaterThan(Number(s1));
   });
 
-  it('upgrades a version-1 database: points gain their label and convergence fields and indexes', async () => {
+  it('upgrades a version-1 database to v3: points gain their label and convergence fields, the outbox its entity index', async () => {
     const name = `t-${newId()}`;
     // A browser that ran the first release: only version 1, points without the v2 fields.
     const v1 = new Dexie(name);
@@ -68,12 +68,17 @@ describe('PhasewrightDb', () => {
       { mapId: 'm', key: 'V=3', point: point(undefined, true, 3) },
     ]);
     await v1.table('models').put({ id: 'x', projectId: LOCAL_PROJECT_ID, ownerId: null, name: 'kept', createdAt: 1, updatedAt: 1, spec: {} });
+    await v1.table('outbox').add({ projectId: 'p1', entity: 'model', entityId: 'x', op: 'put', createdAt: 1 });
     v1.close();
 
     const db = new PhasewrightDb(name);
     opened.push(db);
     await db.open();
-    expect(db.verno).toBe(2);
+    expect(db.verno).toBe(3);
+    // v3: the outbox entry is found by entity, the new tables are there and empty.
+    expect(await db.outbox.where('[entity+entityId]').equals(['model', 'x']).count()).toBe(1);
+    expect(await db.session.count()).toBe(0);
+    expect(await db.conflicts.count()).toBe(0);
     expect((await db.models.get('x'))?.name).toBe('kept');
     const rows = await db.points.where('mapId').equals('m').sortBy('key');
     expect(rows.map((r) => [r.key, r.labelId, r.converged])).toEqual([
@@ -83,5 +88,22 @@ describe('PhasewrightDb', () => {
     ]);
     expect(await db.points.where('[mapId+labelId]').equals(['m', 'density-wave']).count()).toBe(1);
     expect(await db.points.where('[mapId+converged]').equals(['m', 0]).count()).toBe(1);
+  });
+
+  it('queues one waiting entry per entity; an entry already being pushed does not count', async () => {
+    const db = new PhasewrightDb(`t-${newId()}`);
+    opened.push(db);
+    await queueChange(db, 'p', 'map', 'm1');
+    await queueChange(db, 'p', 'map', 'm1');
+    expect(await db.outbox.count()).toBe(1);
+    const [first] = await db.outbox.toArray();
+    await db.outbox.update(first.seq as number, { batchId: 'b1' });
+    await queueChange(db, 'p', 'map', 'm1');
+    await queueChange(db, 'p', 'model', 'm1');
+    expect((await db.outbox.toArray()).map((e) => [e.entity, e.batchId ?? null])).toEqual([
+      ['map', 'b1'],
+      ['map', null],
+      ['model', null],
+    ]);
   });
 });

@@ -2,9 +2,13 @@
  * The local source of truth: one typed Dexie database. Every released schema version stays
  * declared here with its upgrade, so a browser that last ran any older build opens cleanly.
  *
- * Ownership: every record carries `projectId` (and `ownerId`). Until the accounts API exists the
- * only project is this device's local space (`LOCAL_PROJECT_ID`, owner `null`); server projects
- * will slot in with their own ids, and the outbox queues changes for the sync engine.
+ * Ownership: every record carries `projectId` (and `ownerId`). The device's local space is
+ * `LOCAL_PROJECT_ID` (owner `null`, never synced); server projects have the server's ids, and the
+ * outbox queues their changes for the sync engine (lib/sync-engine.ts).
+ *
+ * Schema v3 adds the signed-in session (user profile and refresh token; the access token stays in
+ * memory), a copy of the server projects for offline use, per-project sync state (the pull cursor)
+ * and the conflicts a push returned.
  */
 import { Dexie, type EntityTable, type Table } from 'dexie';
 import type { MapPoint, MapProvenance, ModelSpec, SweepSpec } from '@phasewright/physics-core';
@@ -23,6 +27,8 @@ interface Owned {
   /** Milliseconds since the epoch. */
   createdAt: number;
   updatedAt: number;
+  /** Server projects: the server revision this local copy started from (absent: never synced). */
+  syncedRev?: number;
 }
 
 /** A model as last saved from the editor; `spec` passed `parseModelSpec` when saved. */
@@ -69,9 +75,11 @@ export interface LabelAnnotation {
   name?: string;
   color?: string;
   note?: string;
-  /** Edit revision (the sync server refuses stale edits by it). */
+  /** Local edit counter. */
   rev: number;
   updatedAt: number;
+  /** Server projects: the server revision this local copy started from (absent: never synced). */
+  syncedRev?: number;
 }
 
 export type RunState = 'running' | 'paused' | 'cancelled' | 'done' | 'failed';
@@ -94,9 +102,62 @@ export interface RunRecord {
 export interface OutboxEntry {
   seq?: number;
   projectId: string;
+  /** `map` stands for the map's header and all its points (the server merges point by point). */
   entity: 'model' | 'sweep' | 'map' | 'point' | 'label';
   entityId: string;
   op: 'put' | 'delete';
+  createdAt: number;
+  /** Set when a push of this entry started; every retry sends the same batch id (idempotent). */
+  batchId?: string;
+  /** Set when the server refused the batch for a reason a retry will not cure (shown on the sync page). */
+  error?: string;
+}
+
+/** The signed-in account on this device (one row, id `current`). */
+export interface SessionRecord {
+  id: 'current';
+  user: { id: string; email: string; displayName: string; siteRole: 'admin' | 'member' };
+  /** Single-use; rotated by every refresh. Null after the server refused it (sign in again). */
+  refreshToken: string | null;
+  refreshExpiresAt: string | null;
+  signedInAt: number;
+}
+
+export type ProjectRole = 'owner' | 'editor' | 'reviewer' | 'viewer';
+
+/** A server project as last seen (so that its home opens offline). */
+export interface ProjectRecord {
+  id: string;
+  name: string;
+  description: string;
+  myRole: ProjectRole;
+  archived: boolean;
+  updatedAt: number;
+  /** The account this copy belongs to (another account signing in on this device sees its own). */
+  userId: string;
+}
+
+/** Sync bookkeeping of one server project. */
+export interface SyncStateRecord {
+  projectId: string;
+  /** The pull cursor (the project's change number last applied). */
+  cursor: number;
+  lastPullAt?: number;
+  lastPushAt?: number;
+  /** Failed attempts in a row (for the back-off); 0 after a success. */
+  failures: number;
+  lastError?: string;
+}
+
+/** A stale edit the server refused; the user picks mine, theirs, or an edited version. */
+export interface ConflictRecord {
+  id: string;
+  projectId: string;
+  entity: 'model' | 'sweep' | 'label';
+  entityId: string;
+  /** What this device pushed (the server's shape of the record). */
+  yours: Record<string, unknown>;
+  theirs: { revision: number; data: Record<string, unknown>; updatedBy: string | null; updatedAt: string } | null;
   createdAt: number;
 }
 
@@ -117,6 +178,16 @@ export const SCHEMA_V2 = {
   points: '[mapId+key], mapId, [mapId+labelId], [mapId+converged]',
 } as const;
 
+/** Version 3: session, server projects, sync state, conflicts; the outbox by entity. */
+export const SCHEMA_V3 = {
+  ...SCHEMA_V2,
+  outbox: '++seq, projectId, createdAt, [entity+entityId], batchId',
+  session: 'id',
+  projects: 'id, userId, updatedAt',
+  syncState: 'projectId',
+  conflicts: 'id, projectId, entityId',
+} as const;
+
 export class PhasewrightDb extends Dexie {
   models!: EntityTable<ModelRecord, 'id'>;
   sweeps!: EntityTable<SweepRecord, 'id'>;
@@ -125,6 +196,10 @@ export class PhasewrightDb extends Dexie {
   labels!: EntityTable<LabelAnnotation, 'id'>;
   runs!: EntityTable<RunRecord, 'id'>;
   outbox!: EntityTable<OutboxEntry, 'seq'>;
+  session!: EntityTable<SessionRecord, 'id'>;
+  projects!: EntityTable<ProjectRecord, 'id'>;
+  syncState!: EntityTable<SyncStateRecord, 'projectId'>;
+  conflicts!: EntityTable<ConflictRecord, 'id'>;
 
   constructor(name: string = DB_NAME, options?: ConstructorParameters<typeof Dexie>[1]) {
     super(name, options);
@@ -140,6 +215,7 @@ export class PhasewrightDb extends Dexie {
             row.converged = row.point.convergence.converged ? 1 : 0;
           });
       });
+    this.version(3).stores(SCHEMA_V3);
   }
 }
 
@@ -155,3 +231,17 @@ export function newId(): string {
 
 /** The app's database (one per page; tests make their own with another name). */
 export const db = new PhasewrightDb();
+
+/**
+ * Queues a change for the sync engine, once: an entry for the same entity that has not started
+ * pushing yet already covers it (the push reads the record as it is then). Call inside a
+ * transaction that includes `db.outbox`.
+ */
+export async function queueChange(database: PhasewrightDb, projectId: string, entity: OutboxEntry['entity'], entityId: string): Promise<void> {
+  const waiting = await database.outbox
+    .where('[entity+entityId]')
+    .equals([entity, entityId])
+    .filter((e) => !e.batchId && !e.error)
+    .count();
+  if (waiting === 0) await database.outbox.add({ projectId, entity, entityId, op: 'put', createdAt: Date.now() });
+}

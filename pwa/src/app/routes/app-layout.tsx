@@ -1,6 +1,9 @@
 import { CORE_VERSION } from '@phasewright/physics-core';
 import type { ReactNode } from 'react';
-import { NavLink, Outlet } from 'react-router-dom';
+import { Link, NavLink, Outlet, useNavigate } from 'react-router-dom';
+import { useSignOut } from '../../features/auth/api/sign-out.js';
+import { SyncBadge } from '../../features/sync/components/sync-badge.js';
+import { useSession } from '../../lib/auth.js';
 import { Badge } from '../../components/ui/badge.js';
 import { Button } from '../../components/ui/button.js';
 import { LogoMark } from '../../components/ui/logo-mark.js';
@@ -13,10 +16,46 @@ import { useOnlineStatus } from '../../lib/use-online-status.js';
 
 const NAV_ITEMS = [
   { to: '/', label: 'Home', end: true },
+  { to: '/projects', label: 'Projects', end: true },
   { to: '/projects/device', label: 'This device', end: false },
   { to: '/models/new', label: 'New model', end: true },
+  { to: '/compare', label: 'Compare', end: true },
   { to: '/status', label: 'Status', end: false },
 ] as const;
+
+/** Who is signed in (or a sign-in link), with sign-out and, for site admins, the mail page. */
+function AccountArea() {
+  const session = useSession();
+  const signOut = useSignOut();
+  const navigate = useNavigate();
+  if (session === undefined) return null;
+  if (session === null) {
+    return (
+      <Link to="/sign-in" className="rounded-md px-3 py-1.5 text-sm font-semibold text-accent-700 ring-1 ring-line hover:bg-accent-50">
+        Sign in
+      </Link>
+    );
+  }
+  return (
+    <div className="flex items-center gap-2 text-sm" data-testid="account">
+      <span className="font-semibold text-ink-900" title={session.user.email} data-testid="signed-in-user">
+        {session.user.displayName}
+      </span>
+      {session.user.siteRole === 'admin' ? (
+        <NavLink to="/admin/mail" className={navClass}>
+          Mail
+        </NavLink>
+      ) : null}
+      <button
+        type="button"
+        className="rounded-md px-2 py-1 text-sm font-semibold text-ink-700 hover:bg-ink-100"
+        onClick={() => signOut.mutate(undefined, { onSettled: () => navigate('/') })}
+      >
+        Sign out
+      </button>
+    </div>
+  );
+}
 
 function navClass({ isActive }: { isActive: boolean }): string {
   return `rounded-md px-3 py-1.5 text-sm font-semibold transition-colors ${
@@ -59,7 +98,7 @@ export function AppShell({ children }: { children: ReactNode }) {
         Skip to content
       </a>
       <header className="border-b-2 border-ink-900 bg-paper text-ink-900">
-        <div className="mx-auto flex max-w-5xl flex-wrap items-center gap-x-6 gap-y-2 px-5 py-3">
+        <div className="mx-auto flex max-w-6xl flex-wrap items-center gap-x-5 gap-y-2 px-5 py-3">
           <NavLink to="/" className="flex items-center gap-2.5 rounded-md" aria-label="Phasewright, home">
             <LogoMark size={34} />
             <span className="text-lg font-bold tracking-tight">Phasewright</span>
@@ -72,13 +111,15 @@ export function AppShell({ children }: { children: ReactNode }) {
             ))}
           </nav>
           {online ? null : <Badge tone="warn">Offline</Badge>}
+          <SyncBadge />
+          <AccountArea />
         </div>
       </header>
-      <main id="main" className="mx-auto w-full max-w-5xl flex-1 px-5 py-8">
+      <main id="main" className="mx-auto w-full max-w-6xl flex-1 px-5 py-8">
         {children}
       </main>
       <footer className="border-t border-line">
-        <div className="mx-auto flex max-w-5xl flex-wrap justify-between gap-2 px-5 py-4 text-sm text-ink-600">
+        <div className="mx-auto flex max-w-6xl flex-wrap justify-between gap-2 px-5 py-4 text-sm text-ink-600">
           <span>Phasewright — phase diagrams of lattice bosons, computed in your browser.</span>
           <span data-testid="core-version">physics-core v{CORE_VERSION}</span>
         </div>

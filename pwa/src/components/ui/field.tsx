@@ -27,9 +27,12 @@ interface TextFieldProps {
   className?: string;
   inputMode?: 'decimal' | 'numeric' | 'text';
   placeholder?: string;
+  type?: 'text' | 'email' | 'password';
+  autoComplete?: string;
+  required?: boolean;
 }
 
-export function TextField({ label, value, onChange, errors = [], path, hint, className = '', inputMode, placeholder }: TextFieldProps) {
+export function TextField({ label, value, onChange, errors = [], path, hint, className = '', inputMode, placeholder, type = 'text', autoComplete = 'off', required }: TextFieldProps) {
   const bad = errors.length > 0;
   return (
     <Field className={className}>
@@ -42,7 +45,9 @@ export function TextField({ label, value, onChange, errors = [], path, hint, cla
         inputMode={inputMode}
         placeholder={placeholder}
         spellCheck={false}
-        autoComplete="off"
+        type={type}
+        required={required}
+        autoComplete={autoComplete}
         className={`${inputClass} ${bad ? 'border-red-500' : 'border-line'}`}
       />
       {hint && !bad ? <Description className="mt-1 text-xs text-ink-600">{hint}</Description> : null}

@@ -1,24 +1,27 @@
 /** Sweeps and their maps in the local database. */
 import { CORE_VERSION, mapIdentity, type PhaseMap, type SweepSpec } from '@phasewright/physics-core';
 import { useLiveQuery } from 'dexie-react-hooks';
-import { LOCAL_PROJECT_ID, db, newId, type MapRecord, type RunRecord, type SweepRecord } from '../../../lib/db.js';
+import { LOCAL_PROJECT_ID, db, newId, queueChange, type MapRecord, type RunRecord, type SweepRecord } from '../../../lib/db.js';
 
 export function runtimeInfo(): PhaseMap['provenance']['runtime'] {
   return { kind: 'browser', version: navigator.userAgent, cores: navigator.hardwareConcurrency || 1 };
 }
 
-/** Creates a sweep and its (empty) map; returns the sweep id. */
+/** Creates a sweep and its (empty) map in the model's project; returns the sweep id. */
 export async function createSweep(spec: SweepSpec, modelId: string): Promise<string> {
+  const model = await db.models.get(modelId);
+  const projectId = model?.projectId ?? LOCAL_PROJECT_ID;
+  const ownerId = model?.ownerId ?? null;
   const now = Date.now();
   const sweepId = newId();
   const mapId = newId();
   const name = spec.name ?? `${spec.model.name ?? 'model'} · ${spec.axes.map((a) => a.parameter).join(' × ')}`;
   const createdAt = new Date(now).toISOString();
-  const sweep: SweepRecord = { id: sweepId, projectId: LOCAL_PROJECT_ID, ownerId: null, name, createdAt: now, updatedAt: now, modelId, spec, mapId };
+  const sweep: SweepRecord = { id: sweepId, projectId, ownerId, name, createdAt: now, updatedAt: now, modelId, spec, mapId };
   const map: MapRecord = {
     id: mapId,
-    projectId: LOCAL_PROJECT_ID,
-    ownerId: null,
+    projectId,
+    ownerId,
     name,
     createdAt: now,
     updatedAt: now,
@@ -33,10 +36,8 @@ export async function createSweep(spec: SweepSpec, modelId: string): Promise<str
   await db.transaction('rw', db.sweeps, db.maps, db.outbox, async () => {
     await db.sweeps.add(sweep);
     await db.maps.add(map);
-    await db.outbox.bulkAdd([
-      { projectId: LOCAL_PROJECT_ID, entity: 'sweep', entityId: sweepId, op: 'put', createdAt: now },
-      { projectId: LOCAL_PROJECT_ID, entity: 'map', entityId: mapId, op: 'put', createdAt: now },
-    ]);
+    await queueChange(db, projectId, 'sweep', sweepId);
+    await queueChange(db, projectId, 'map', mapId);
   });
   return sweepId;
 }

@@ -8,7 +8,7 @@
  * workers at once.
  */
 import { runSweep, type Progress } from '@phasewright/physics-core';
-import { db, pointRow, type PointRow, type RunState } from '../../../lib/db.js';
+import { LOCAL_PROJECT_ID, db, pointRow, queueChange, type PointRow, type RunState } from '../../../lib/db.js';
 import { loadPhaseMap, runtimeInfo } from '../api/sweeps.js';
 import { createBrowserWorker } from '../workers/browser-worker.js';
 import { RateMeter, progressFigures, type ProgressFigures } from '../workers/eta.js';
@@ -91,8 +91,10 @@ export async function startRun(sweepId: string): Promise<void> {
     const rows = pending;
     pending = [];
     const p = lastProgress;
-    await db.transaction('rw', db.points, db.maps, db.runs, async () => {
+    await db.transaction('rw', [db.points, db.maps, db.runs, db.outbox], async () => {
       if (rows.length) await db.points.bulkPut(rows);
+      // Points of a server project's map wait in the outbox for the sync engine.
+      if (rows.length && sweep.projectId !== LOCAL_PROJECT_ID) await queueChange(db, sweep.projectId, 'map', sweep.mapId);
       const count = await db.points.where('mapId').equals(sweep.mapId).count();
       await db.maps.update(sweep.mapId, { pointCount: count, updatedAt: Date.now(), ...(provenance ? { provenance: structuredClone(provenance) } : {}) });
       if (p) await db.runs.update(sweepId, { done: p.done + p.skipped, total: p.total + p.skipped, failed: p.failed, updatedAt: Date.now() });
@@ -128,7 +130,10 @@ export async function startRun(sweepId: string): Promise<void> {
     await flush();
     if (!outcome.cancelled) {
       // The finished map's points are merged and sorted; store that form.
-      await db.points.bulkPut(Object.entries(outcome.map.points).map(([k, p]) => pointRow(sweep.mapId, k, p)));
+      await db.transaction('rw', db.points, db.outbox, async () => {
+        await db.points.bulkPut(Object.entries(outcome.map.points).map(([k, p]) => pointRow(sweep.mapId, k, p)));
+        if (sweep.projectId !== LOCAL_PROJECT_ID) await queueChange(db, sweep.projectId, 'map', sweep.mapId);
+      });
     }
     live.state = outcome.cancelled ? 'cancelled' : 'done';
     await db.runs.update(sweepId, { state: live.state, updatedAt: Date.now() });

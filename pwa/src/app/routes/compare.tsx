@@ -1,0 +1,4 @@
+/** /compare — placeholder replaced below. */
+export function Component() {
+  return <p>Compare</p>;
+}

@@ -1,0 +1,160 @@
+// The group side in the browser, against the real server and MariaDB:
+//   1. An owner creates a project and invites a collaborator by e-mail from the members page; a
+//      site admin opens the captured message on the admin Mail page; the invitee follows its
+//      link, registers and sees the project; the owner sees the new member and changes the role.
+//   2. The offline journey: the editor goes offline, creates a model and runs a sweep in the
+//      shared project, reloads while still offline (app and map are there), comes back online and
+//      the map syncs; another member pulls it and sees the same identity, point count and digest.
+// Every step a person does happens in the page. One step is not a user's: the test's own admin
+// account is made a site admin with SQL (the demo seed has no admin yet), by its unique address.
+import assert from 'node:assert/strict';
+import { randomBytes } from 'node:crypto';
+import { launchFreshContext } from './browser.mjs';
+import { rootSql } from '../lib/db.mjs';
+
+const PASSWORD = 'quartz-lantern-8128';
+const run = randomBytes(3).toString('hex');
+const address = (who) => `${who}.${run}@example.org`;
+
+/** Accounts made by earlier tests of this run (registrations are rate-limited per address). */
+const accounts = {};
+
+/** @param {import('playwright-core').Page} page */
+async function register(page, baseUrl, who, displayName) {
+  await page.goto(`${baseUrl}/register`);
+  await page.locator('[data-path="email"]').fill(address(who));
+  await page.locator('[data-path="displayName"]').fill(displayName);
+  await page.locator('[data-path="password"]').fill(PASSWORD);
+  await page.getByRole('button', { name: 'Create the account' }).click();
+  await page.getByTestId('signed-in-user').filter({ hasText: displayName }).waitFor();
+  accounts[who] = { email: address(who), displayName };
+}
+
+/** @param {import('playwright-core').Page} page */
+async function signIn(page, baseUrl, who) {
+  await page.goto(`${baseUrl}/sign-in`);
+  await page.locator('[data-path="email"]').fill(accounts[who].email);
+  await page.locator('[data-path="password"]').fill(PASSWORD);
+  await page.getByRole('button', { name: 'Sign in' }).click();
+  await page.getByTestId('signed-in-user').filter({ hasText: accounts[who].displayName }).waitFor();
+}
+
+/** Makes the test's own account a site admin (not a user step: there is no demo admin to use). */
+async function promoteToAdmin(email) {
+  if (!/^[a-z0-9.]+@example\.org$/.test(email)) throw new Error(`unexpected address ${email}`);
+  const out = await rootSql("SELECT DISTINCT table_schema FROM information_schema.columns WHERE table_name = 'users' AND column_name = 'site_role'");
+  const schemas = out.split('\n').slice(1).map((s) => s.trim()).filter((s) => /^[A-Za-z0-9_]+$/.test(s));
+  for (const schema of schemas) await rootSql(`UPDATE \`${schema}\`.users SET site_role = 'admin' WHERE email = '${email}'`);
+}
+
+/** The admin's context: registered, promoted, on the Mail page (link in the header). */
+async function openAdminMail(baseUrl, screenshot, shotName) {
+  const admin = await launchFreshContext();
+  const page = admin.context.pages()[0] ?? (await admin.context.newPage());
+  if (accounts.admin) await signIn(page, baseUrl, 'admin');
+  else {
+    await register(page, baseUrl, 'admin', `Site Admin ${run}`);
+    await promoteToAdmin(address('admin'));
+    await page.reload();
+  }
+  await page.getByRole('link', { name: 'Mail' }).click({ timeout: 15_000 });
+  await page.getByRole('heading', { name: 'Captured mail' }).waitFor();
+  return { admin, page, shot: () => screenshot(shotName, page) };
+}
+
+/**
+ * Owner invites `who` as `role` on the members page; the admin reads the link; `who` opens it in
+ * a fresh context and registers. Returns the invitee's browser (signed in, on the project page).
+ */
+async function inviteAndJoin({ baseUrl, page, screenshot, projectId, who, displayName, role, shots }) {
+  await page.goto(`${baseUrl}/projects/${projectId}/members`);
+  await page.locator('[data-path="email"]').fill(address(who));
+  await page.locator('[data-path="role"]').selectOption(role);
+  await page.getByRole('button', { name: 'Send invitation' }).click();
+  await page.getByRole('status').filter({ hasText: `Invitation sent to ${address(who)}` }).waitFor();
+  await page.locator(`[data-invitation="${address(who)}"] [data-state="pending"]`).waitFor();
+  if (shots) await screenshot(`${shots}-owner-invited`);
+
+  const { admin, page: adminPage, shot } = await openAdminMail(baseUrl, screenshot, `${shots ?? 'group'}-admin-mail`);
+  let href;
+  try {
+    await adminPage.getByRole('textbox', { name: 'Recipient filter' }).fill(address(who));
+    const message = adminPage.locator(`[data-mail-to="${address(who)}"]`).filter({ hasText: 'invites you' }).first();
+    await message.waitFor();
+    href = await message.locator('[data-mail-link]').first().getAttribute('href');
+    if (shots) await shot();
+  } finally {
+    await admin.close();
+  }
+  assert.match(href ?? '', /^\/invitations\/accept#token=/, 'the captured invitation links into the app');
+
+  const invitee = await launchFreshContext();
+  const ipage = invitee.context.pages()[0] ?? (await invitee.context.newPage());
+  await ipage.goto(`${baseUrl}${href}`);
+  await ipage.getByRole('heading', { name: /^Join/ }).waitFor();
+  await ipage.getByText(`as ${role}`, { exact: false }).first().waitFor();
+  if (shots) await screenshot(`${shots}-invitee-link`, ipage);
+  await ipage.locator('[data-path="displayName"]').fill(displayName);
+  await ipage.locator('[data-path="password"]').fill(PASSWORD);
+  await ipage.getByRole('button', { name: 'Create the account and join' }).click();
+  await ipage.waitForURL(new RegExp(`/projects/${projectId}$`));
+  accounts[who] = { email: address(who), displayName };
+  return { invitee, ipage };
+}
+
+/** @param {import('playwright-core').Page} page */
+async function createProject(page, baseUrl, name) {
+  await page.goto(`${baseUrl}/projects`);
+  await page.locator('[data-path="name"]').fill(name);
+  await page.getByRole('button', { name: 'Create project' }).click();
+  await page.waitForURL(/\/projects\/[0-9a-f-]{36}$/);
+  await page.getByRole('heading', { level: 1, name }).waitFor();
+  return page.url().split('/').pop();
+}
+
+/** Waits until the header's sync badge shows `phase`. */
+async function syncPhase(page, phase, timeout = 20_000) {
+  await page.locator(`[data-testid="sync-badge"][data-phase="${phase}"]`).waitFor({ timeout });
+}
+
+export const tests = [
+  {
+    name: 'owner invites a collaborator by e-mail; the invitee follows the captured link, registers and sees the project',
+    async run({ baseUrl, page, screenshot }) {
+      const t0 = Date.now();
+      await register(page, baseUrl, 'owner', `Olive Owner ${run}`);
+      await syncPhase(page, 'up-to-date');
+      const projectName = `Kagome survey ${run}`;
+      const projectId = await createProject(page, baseUrl, projectName);
+      await screenshot('group-1-project-home');
+
+      const { invitee, ipage } = await inviteAndJoin({ baseUrl, page, screenshot, projectId, who: 'invitee', displayName: `Ivo Invitee ${run}`, role: 'editor', shots: 'group-2' });
+      try {
+        await ipage.getByRole('heading', { level: 1, name: projectName }).waitFor();
+        await ipage.getByText('Shared project · you are editor').waitFor();
+        await ipage.getByRole('navigation', { name: 'Main' }).getByRole('link', { name: 'Projects' }).click();
+        await ipage.locator(`[data-project="${projectId}"]`).getByText('you are editor').waitFor();
+        await screenshot('group-3-invitee-projects', ipage);
+      } finally {
+        await invitee.close();
+      }
+
+      // The owner sees the new member, and the accepted invitation; changes the role.
+      await page.goto(`${baseUrl}/projects/${projectId}/members`);
+      const row = page.locator(`[data-member="${address('invitee')}"]`);
+      await row.waitFor();
+      assert.equal(await row.getByRole('combobox').inputValue(), 'editor');
+      await page.locator(`[data-invitation="${address('invitee')}"] [data-state="accepted"]`).waitFor();
+      await row.getByRole('combobox').selectOption('reviewer');
+      await page.waitForResponse((r) => r.url().includes('/members/') && r.request().method() === 'PATCH' && r.ok());
+      await page.reload();
+      await page.locator(`[data-member="${address('invitee')}"]`).waitFor();
+      assert.equal(await page.locator(`[data-member="${address('invitee')}"]`).getByRole('combobox').inputValue(), 'reviewer');
+      // The last owner cannot demote themselves: the server says why, the page shows it.
+      await page.locator(`[data-member="${address('owner')}"]`).getByRole('combobox').selectOption('viewer');
+      await page.getByRole('alert').filter({ hasText: /owner/i }).waitFor();
+      await screenshot('group-4-members');
+      console.log(`     invitation round trip through the page: ${((Date.now() - t0) / 1000).toFixed(1)} s`);
+    },
+  },
+];
