@@ -27,20 +27,29 @@ export class MapsService {
 
   /** Points of a map (all, or those of the given keys), keyed by point key. */
   async points(mapPk: number, keys?: string[], transaction?: Transaction): Promise<Record<string, MapPoint>> {
+    return (await this.pointsWithText(mapPk, keys, transaction)).points;
+  }
+
+  /** Points and their stored canonical text (sync compares merged results with it). */
+  async pointsWithText(mapPk: number, keys?: string[], transaction?: Transaction): Promise<{ points: Record<string, MapPoint>; texts: Map<string, string> }> {
     const out: Record<string, MapPoint> = {};
+    const texts = new Map<string, string>();
     const add = (rows: { k: string; d: string }[]) => {
-      for (const r of rows) out[r.k] = JSON.parse(r.d) as MapPoint;
+      for (const r of rows) {
+        out[r.k] = JSON.parse(r.d) as MapPoint;
+        texts.set(r.k, r.d);
+      }
     };
     if (keys === undefined) {
       add(await this.sequelize.query<{ k: string; d: string }>('SELECT point_key AS k, data AS d FROM map_points WHERE map_pk = ? ORDER BY point_key', { type: QueryTypes.SELECT, replacements: [mapPk], transaction }));
-      return out;
+      return { points: out, texts };
     }
     for (let i = 0; i < keys.length; i += 1000) {
       const chunk = keys.slice(i, i + 1000);
       if (chunk.length === 0) break;
       add(await this.sequelize.query<{ k: string; d: string }>('SELECT point_key AS k, data AS d FROM map_points WHERE map_pk = ? AND point_key IN (?)', { type: QueryTypes.SELECT, replacements: [mapPk, chunk], transaction }));
     }
-    return out;
+    return { points: out, texts };
   }
 
   /** The whole stored map as a phasewright.map/1 document (points sorted by key). */

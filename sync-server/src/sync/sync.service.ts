@@ -1,4 +1,4 @@
-import { BadRequestException, ConflictException, Inject, Injectable, PayloadTooLargeException } from '@nestjs/common';
+import { BadRequestException, ConflictException, Inject, Injectable, Logger, PayloadTooLargeException } from '@nestjs/common';
 import { InjectConnection } from '@nestjs/sequelize';
 import {
   CORE_VERSION,
@@ -34,12 +34,14 @@ import {
 /** A change after the checks that need no database (maps parsed by physics-core). */
 type Prepared = { change: ChangeInput; index: number; map?: PhaseMap };
 
-const POINT_ROWS_PER_INSERT = 500;
+const POINT_ROWS_PER_BATCH = 2000;
 const DEADLOCK = /deadlock|lock wait timeout/i;
 
 /** Push and pull of a project's models, sweeps, maps, points, annotations and notes. */
 @Injectable()
 export class SyncService {
+  private readonly logger = new Logger('Sync');
+
   constructor(
     @InjectConnection() private readonly sequelize: Sequelize,
     @Inject(SYNC_CONFIG) private readonly config: SyncConfig,
@@ -79,6 +81,7 @@ export class SyncService {
 
   /** Checks that need no database: models and sweeps by physics-core, maps by parseMap + identity + sweep domain. */
   private prepare(changes: ChangeInput[]): Prepared[] {
+    const t0 = performance.now();
     const issues: InputIssue[] = [];
     const out = changes.map((change, index): Prepared => {
       const path = `changes[${index}].data`;
@@ -119,6 +122,7 @@ export class SyncService {
       return p;
     });
     if (issues.length > 0) throw inputError(issues);
+    this.logger.verbose(`checked ${changes.length} changes in ${(performance.now() - t0).toFixed(0)} ms`);
     return out;
   }
 
@@ -256,13 +260,16 @@ export class SyncService {
 
     const keys = Object.keys(incoming.points);
     let merged: PhaseMap;
-    let stored: Record<string, MapPoint> = {};
+    let stored = new Map<string, string>();
+    const t0 = performance.now();
     if (row) {
-      stored = await this.maps.points(row.pk, keys, tx);
-      merged = mergeMaps([assembleMap(row, stored), incoming]);
+      const loaded = await this.maps.pointsWithText(row.pk, keys, tx);
+      stored = loaded.texts;
+      merged = mergeMaps([assembleMap(row, loaded.points), incoming]);
     } else {
       merged = mergeMaps([incoming]);
     }
+    const t1 = performance.now();
     const sweepText = canonicalJson(merged.sweep);
     const provenanceText = canonicalJson(merged.provenance);
     let pk: number;
@@ -286,19 +293,22 @@ export class SyncService {
     for (const key of keys) {
       const point = merged.points[key];
       const { text, hash } = pointText(point);
-      const before = stored[key];
-      if (before !== undefined && canonicalJson(before) === text) continue;
+      const before = stored.get(key);
+      if (before === text) continue;
       if (before === undefined) added++;
       else updated++;
       if (point.disputed?.length) disputed++;
       writes.push([pk, key, projectId, next(), hash, point.energy, point.label?.id ?? null, point.disputed?.length ? 1 : 0, text]);
     }
-    for (let i = 0; i < writes.length; i += POINT_ROWS_PER_INSERT) {
-      const chunk = writes.slice(i, i + POINT_ROWS_PER_INSERT);
-      await this.sequelize.query(
-        `INSERT INTO map_points (map_pk, point_key, project_id, seq, hash, energy, label_id, disputed, data) VALUES ${chunk.map(() => '(?, ?, ?, ?, ?, ?, ?, ?, ?)').join(', ')} ` +
+    const t2 = performance.now();
+    // The driver's batch (one prepared statement, rows sent in bulk) on the transaction's own
+    // connection: several times faster than one long INSERT text built and escaped in JavaScript.
+    const connection = (tx as unknown as { connection: { batch(sql: string, values: unknown[][]): Promise<unknown> } }).connection;
+    for (let i = 0; i < writes.length; i += POINT_ROWS_PER_BATCH) {
+      await connection.batch(
+        'INSERT INTO map_points (map_pk, point_key, project_id, seq, hash, energy, label_id, disputed, data) VALUES (?, ?, ?, ?, ?, ?, ?, ?, ?) ' +
           'ON DUPLICATE KEY UPDATE seq = VALUES(seq), hash = VALUES(hash), energy = VALUES(energy), label_id = VALUES(label_id), disputed = VALUES(disputed), data = VALUES(data)',
-        { replacements: chunk.flat(), transaction: tx },
+        writes.slice(i, i + POINT_ROWS_PER_BATCH),
       );
     }
 
@@ -311,6 +321,8 @@ export class SyncService {
         { replacements: [sweepText, provenanceText, merged.sweep.name ?? null, hashes.length, digest, next(), userId, pk], transaction: tx },
       );
     }
+    const t3 = performance.now();
+    this.logger.verbose(`map ${change.id}: ${keys.length} points; load + merge ${(t1 - t0).toFixed(0)} ms, serialise ${(t2 - t1).toFixed(0)} ms, write ${writes.length} rows + digest ${(t3 - t2).toFixed(0)} ms`);
     const storedAs = row && row.id !== change.id ? row.id : undefined;
     const status = !row ? 'created' : writes.length > 0 || metadataChanged ? 'merged' : 'unchanged';
     return { kind: change.kind, id: change.id, status, ...(storedAs ? { storedAs } : {}), points: { received: keys.length, added, updated, unchanged: keys.length - added - updated, disputed } };
