@@ -18,6 +18,8 @@ const address = (who) => `${who}.${run}@example.org`;
 
 /** Accounts made by earlier tests of this run (registrations are rate-limited per address). */
 const accounts = {};
+/** The project of the first test (owner: 'owner'; 'invitee' is a member), reused by later ones. */
+const shared = { projectId: null, projectName: null };
 
 /** @param {import('playwright-core').Page} page */
 async function register(page, baseUrl, who, displayName) {
@@ -127,6 +129,7 @@ export const tests = [
       const projectName = `Kagome survey ${run}`;
       const projectId = await createProject(page, baseUrl, projectName);
       await screenshot('group-1-project-home');
+      Object.assign(shared, { projectId, projectName });
 
       const { invitee, ipage } = await inviteAndJoin({ baseUrl, page, screenshot, projectId, who: 'invitee', displayName: `Ivo Invitee ${run}`, role: 'editor', shots: 'group-2' });
       try {
@@ -155,6 +158,101 @@ export const tests = [
       await page.getByRole('alert').filter({ hasText: /owner/i }).waitFor();
       await screenshot('group-4-members');
       console.log(`     invitation round trip through the page: ${((Date.now() - t0) / 1000).toFixed(1)} s`);
+    },
+  },
+  {
+    name: 'offline journey: sweep offline in a shared project, reload offline, back online the map syncs; another member pulls the same points',
+    async run({ baseUrl, context, page, screenshot }) {
+      // Setup (done by the first test when it ran): an owner and a second member of one project.
+      if (accounts.owner) await signIn(page, baseUrl, 'owner');
+      else await register(page, baseUrl, 'owner', `Olive Owner ${run}`);
+      if (!shared.projectId) {
+        shared.projectName = `Kagome survey ${run}`;
+        shared.projectId = await createProject(page, baseUrl, shared.projectName);
+        const { invitee } = await inviteAndJoin({ baseUrl, page, screenshot, projectId: shared.projectId, who: 'invitee', displayName: `Ivo Invitee ${run}`, role: 'viewer' });
+        await invitee.close();
+      }
+      const { projectId, projectName } = shared;
+
+      // The service worker must control the page before the network goes.
+      await page.goto(`${baseUrl}/projects/${projectId}`);
+      await page.evaluate(async () => {
+        const registration = await navigator.serviceWorker.ready;
+        const worker = registration.active;
+        if (worker && worker.state !== 'activated') await new Promise((resolve) => worker.addEventListener('statechange', () => worker.state === 'activated' && resolve(undefined)));
+      });
+      await page.reload();
+      await page.getByRole('heading', { level: 1, name: projectName }).waitFor();
+      assert.equal(await page.evaluate(() => navigator.serviceWorker.controller?.state ?? null), 'activated');
+      await syncPhase(page, 'up-to-date');
+
+      // Offline: a model and an ED cut in the shared project.
+      await context.setOffline(true);
+      await syncPhase(page, 'offline');
+      await page.getByRole('link', { name: 'New model' }).last().click();
+      await page.getByTestId('model-project').filter({ hasText: projectName }).waitFor();
+      await page.getByText('The model is valid.').waitFor();
+      await page.locator('[data-path="$.name"]').fill(`offline chain ${run}`);
+      await page.getByRole('button', { name: 'Save model' }).click();
+      await page.waitForURL(/\/models\/[0-9a-f-]{36}$/);
+      await page.getByRole('button', { name: 'Sweep this model →' }).click();
+      await page.getByRole('form', { name: 'Sweep' }).waitFor();
+      await page.locator('[data-path="$.name"]').fill(`offline cut ${run}`);
+      await page.selectOption('[data-path="$.axes[0].parameter"]', 'V');
+      await page.locator('[data-path="$.axes[0].from"]').fill('0');
+      await page.locator('[data-path="$.axes[0].to"]').fill('3');
+      await page.locator('[data-path="$.axes[0].points"]').fill('7');
+      await page.getByText('7 coarse points').waitFor();
+      await page.getByRole('button', { name: 'Create sweep and start' }).click();
+      await page.waitForURL(/\/sweeps\//);
+      await page.locator('[data-run-state="done"]').waitFor({ timeout: 20_000 });
+      const waiting = Number(await page.getByTestId('sync-badge').getAttribute('data-waiting'));
+      assert.ok(waiting >= 3, `model, sweep and map wait in the outbox (badge says ${waiting})`);
+      await screenshot('group-5-offline-sweep');
+      await page.getByRole('link', { name: 'Open the map' }).click();
+      await page.waitForURL(/\/maps\//);
+      const mapUrl = page.url();
+
+      // Reload while still offline: the app (service worker) and the map (IndexedDB) are there.
+      await page.reload();
+      await page.getByTestId('map-view').waitFor();
+      assert.equal(await page.locator('[data-testid="cut-plot"] circle[data-point]').count(), 7);
+      const networkDown = await page.evaluate(() => fetch(`/api/health?probe=${Date.now()}`).then(() => false, () => true));
+      assert.ok(networkDown, 'the network is really off after the reload');
+      await page.getByTestId('signed-in-user').filter({ hasText: accounts.owner.displayName }).waitFor();
+      await screenshot('group-6-offline-reload');
+
+      // Back online: the outbox drains.
+      const t0 = Date.now();
+      await context.setOffline(false);
+      await syncPhase(page, 'up-to-date', 40_000);
+      const syncMs = Date.now() - t0;
+      const identity = await page.getByTestId('map-identity').getAttribute('title');
+      const digest = await page.getByTestId('map-digest').getAttribute('title');
+      const points = await page.getByTestId('map-digest').getAttribute('data-points');
+      await page.getByTestId('sync-badge').click();
+      await page.getByRole('heading', { name: 'Waiting to be pushed (0)' }).waitFor();
+      await screenshot('group-7-synced');
+
+      // Another member pulls and sees the same map.
+      const other = await launchFreshContext();
+      try {
+        const opage = other.context.pages()[0] ?? (await other.context.newPage());
+        await signIn(opage, baseUrl, 'invitee');
+        const t1 = Date.now();
+        await opage.goto(`${baseUrl}/projects/${projectId}`);
+        await opage.getByRole('list', { name: 'Items' }).getByRole('link', { name: `offline cut ${run}` }).last().waitFor({ timeout: 20_000 });
+        const pullMs = Date.now() - t1;
+        await opage.goto(mapUrl);
+        await opage.getByTestId('map-view').waitFor();
+        assert.equal(await opage.getByTestId('map-identity').getAttribute('title'), identity, 'same map identity');
+        assert.equal(await opage.getByTestId('map-digest').getAttribute('data-points'), points, 'same number of points');
+        assert.equal(await opage.getByTestId('map-digest').getAttribute('title'), digest, 'same points digest');
+        await screenshot('group-8-other-member', opage);
+        console.log(`     offline journey: ${points} points, outbox drained ${(syncMs / 1000).toFixed(1)} s after going online, other member saw the map ${(pullMs / 1000).toFixed(1)} s after opening the project; digest ${digest?.slice(0, 12)}…`);
+      } finally {
+        await other.close();
+      }
     },
   },
 ];

@@ -58,7 +58,7 @@ function AccountArea() {
 }
 
 function navClass({ isActive }: { isActive: boolean }): string {
-  return `rounded-md px-3 py-1.5 text-sm font-semibold transition-colors ${
+  return `whitespace-nowrap rounded-md px-3 py-1.5 text-sm font-semibold transition-colors ${
     isActive ? 'bg-ink-900 text-paper' : 'text-ink-800 hover:bg-ink-100 hover:text-ink-950'
   }`;
 }

@@ -1,5 +1,10 @@
+import type { MapPoint } from '@phasewright/physics-core';
+import { useMemo } from 'react';
 import { Link, useParams } from 'react-router-dom';
-import { useMapRecord } from '../../features/maps/api/maps.js';
+import { useMapPoints, useMapRecord } from '../../features/maps/api/maps.js';
+import { useStoredProject } from '../../features/projects/api/get-projects.js';
+import { LOCAL_PROJECT_ID, LOCAL_PROJECT_NAME } from '../../lib/db.js';
+import { pointsDigest } from '../../lib/sync-engine.js';
 import { MapView } from '../../features/maps/components/map-view.js';
 import { solveDetail } from './sweep-run.js';
 
@@ -7,6 +12,15 @@ import { solveDetail } from './sweep-run.js';
 export function Component() {
   const { id } = useParams();
   const map = useMapRecord(id);
+  const rows = useMapPoints(id);
+  const project = useStoredProject(map && map.projectId !== LOCAL_PROJECT_ID ? map.projectId : undefined);
+  // The digest the server keeps for a map's point set; equal digests on two devices mean equal points.
+  const digest = useMemo(() => {
+    if (!rows) return undefined;
+    const points: Record<string, MapPoint> = {};
+    for (const r of rows) points[r.key] = r.point;
+    return pointsDigest(points);
+  }, [rows]);
   if (map === undefined) return <p role="status">Loading…</p>;
   if (map === null || !id) return <p>No map with this id on this device.</p>;
   return (
@@ -16,12 +30,25 @@ export function Component() {
         <div>
           <p className="text-sm font-semibold text-ink-600">Map · {map.pointCount} points · core {map.provenance.coreVersion}</p>
           <h1 className="text-2xl font-bold tracking-tight text-ink-900">{map.name}</h1>
+          <p className="mt-1 font-mono text-xs text-ink-600">
+            {project ? project.name : LOCAL_PROJECT_NAME} · identity <span data-testid="map-identity" title={map.identity}>{map.identity.slice(0, 16)}</span> · points digest{' '}
+            <span data-testid="map-digest" data-points={rows?.length ?? 0} title={digest}>
+              {digest?.slice(0, 16) ?? '…'}
+            </span>
+          </p>
         </div>
-        <Link className="text-sm font-semibold text-accent-700 underline underline-offset-2" to={`/sweeps/${map.sweepId}`}>
-          The sweep and its run
-        </Link>
+        <div className="flex gap-4 text-sm font-semibold">
+          <Link className="text-accent-700 underline underline-offset-2" to={`/compare?a=${id}`}>
+            Compare with…
+          </Link>
+          {map.sweepId ? (
+            <Link className="text-accent-700 underline underline-offset-2" to={`/sweeps/${map.sweepId}`}>
+              The sweep and its run
+            </Link>
+          ) : null}
+        </div>
       </div>
-      <MapView mapId={id} solveDetail={solveDetail} />
+      <MapView mapId={id} solveDetail={solveDetail} canAnnotate={!project || project.myRole === 'owner' || project.myRole === 'editor'} />
     </div>
   );
 }

@@ -12,8 +12,9 @@ export interface LegendEntry {
 
 interface Props {
   entries: LegendEntry[];
-  onRename: (labelId: string, name: string) => void;
-  onRecolor: (labelId: string, color: string) => void;
+  /** Absent: read-only legend. */
+  onRename?: (labelId: string, name: string) => void;
+  onRecolor?: (labelId: string, color: string) => void;
 }
 
 export function MapLegend({ entries, onRename, onRecolor }: Props) {
@@ -25,19 +26,23 @@ export function MapLegend({ entries, onRename, onRecolor }: Props) {
     <ul className="space-y-1.5" aria-label="Phase labels">
       {entries.map((e) => (
         <li key={e.labelId} className="flex flex-wrap items-center gap-2 text-sm" data-label={e.labelId}>
-          <button
-            type="button"
-            className="size-5 shrink-0 rounded ring-1 ring-ink-900/30"
-            style={{ background: e.color }}
-            aria-label={`Change the colour of ${e.name}`}
-            onClick={() => setPicking(picking === e.labelId ? null : e.labelId)}
-          />
+          {onRecolor ? (
+            <button
+              type="button"
+              className="size-5 shrink-0 rounded ring-1 ring-ink-900/30"
+              style={{ background: e.color }}
+              aria-label={`Change the colour of ${e.name}`}
+              onClick={() => setPicking(picking === e.labelId ? null : e.labelId)}
+            />
+          ) : (
+            <span className="size-5 shrink-0 rounded ring-1 ring-ink-900/30" style={{ background: e.color }} aria-hidden="true" />
+          )}
           {editing === e.labelId ? (
             <form
               className="flex gap-1.5"
               onSubmit={(ev) => {
                 ev.preventDefault();
-                if (text.trim()) onRename(e.labelId, text.trim());
+                if (text.trim()) onRename?.(e.labelId, text.trim());
                 setEditing(null);
               }}
             >
@@ -62,7 +67,7 @@ export function MapLegend({ entries, onRename, onRecolor }: Props) {
               </span>
               {e.name !== e.labelId ? <span className="text-xs text-ink-500">({e.labelId})</span> : null}
               <span className="text-xs text-ink-600">{e.count} points</span>
-              <button
+              {onRename ? <button
                 type="button"
                 className="text-xs font-semibold text-accent-700 underline underline-offset-2"
                 onClick={() => {
@@ -72,7 +77,7 @@ export function MapLegend({ entries, onRename, onRecolor }: Props) {
                 aria-label={`Rename ${e.name}`}
               >
                 Rename
-              </button>
+              </button> : null}
             </>
           )}
           {picking === e.labelId ? (
@@ -86,7 +91,7 @@ export function MapLegend({ entries, onRename, onRecolor }: Props) {
                   className="size-5 rounded ring-1 ring-ink-900/30"
                   style={{ background: c.hex }}
                   onClick={() => {
-                    onRecolor(e.labelId, c.hex);
+                    onRecolor?.(e.labelId, c.hex);
                     setPicking(null);
                   }}
                 />

@@ -28,7 +28,8 @@ function sequential(t: number): string {
   return `rgb(${c0.map((a, i) => Math.round(a + (c1[i] - a) * u)).join(' ')})`;
 }
 
-export function MapView({ mapId, solveDetail }: { mapId: string; solveDetail: DetailSolver }) {
+/** `canAnnotate` false (viewers and reviewers of a shared project) hides renaming and recolouring. */
+export function MapView({ mapId, solveDetail, canAnnotate = true }: { mapId: string; solveDetail: DetailSolver; canAnnotate?: boolean }) {
   const map = useMapRecord(mapId);
   const rows = useMapPoints(mapId);
   const annotations = useAnnotations(mapId);
@@ -181,7 +182,7 @@ export function MapView({ mapId, solveDetail }: { mapId: string; solveDetail: De
         </div>
         <aside className="space-y-3">
           <h2 className="text-sm font-bold text-ink-900">Phase labels</h2>
-          <MapLegend entries={legend} onRename={(id, name) => void annotateLabel(mapId, id, { name })} onRecolor={(id, color) => void annotateLabel(mapId, id, { color })} />
+          <MapLegend entries={legend} onRename={canAnnotate ? (id, name) => void annotateLabel(mapId, id, { name }) : undefined} onRecolor={canAnnotate ? (id, color) => void annotateLabel(mapId, id, { color }) : undefined} />
           {boundaries.length ? <p className="text-xs text-ink-600">Lines: boundaries between labels; shaded: their uncertainty (half the spacing of the points on either side).</p> : null}
           <p className="text-xs text-ink-600">× not converged · ◦ degenerate ground state</p>
         </aside>
