@@ -20,6 +20,9 @@ import { ProjectsModule } from './projects/projects.module.js';
 import { UsersModule } from './users/users.module.js';
 import { MapsModule } from './maps/maps.module.js';
 import { SyncModule } from './sync/sync.module.js';
+import { ReviewsModule } from './reviews/reviews.module.js';
+import { SpotChecksModule } from './spot-checks/spot-checks.module.js';
+import { ExportsModule } from './exports/exports.module.js';
 
 export const appConfig = (config: AppConfig) => registerAs('app', () => config);
 
@@ -54,6 +57,9 @@ export class AppModule {
       // Map sync, reviews, spot-checks, uploads, exports.
       MapsModule,
       SyncModule,
+      SpotChecksModule,
+      ReviewsModule,
+      ExportsModule,
     ];
     if (fs.existsSync(path.join(config.pwaDist, 'index.html'))) {
       // Static files first; any other GET outside /api gets index.html (client-side routes).

@@ -1,0 +1,153 @@
+import { BadRequestException, HttpException, HttpStatus, Inject, Injectable, NotFoundException } from '@nestjs/common';
+import { InjectConnection } from '@nestjs/sequelize';
+import { CORE_VERSION, type MapPoint, mulberry32, type SegmentJob, type SweepSpec } from '@phasewright/physics-core';
+import { randomUUID } from 'node:crypto';
+import os from 'node:os';
+import { QueryTypes } from 'sequelize';
+import type { Sequelize } from 'sequelize-typescript';
+import type { ProjectAccess } from '../common/auth-user.js';
+import { serverVersion } from '../config/repo-paths.js';
+import { MapsService } from '../maps/maps.service.js';
+import { SYNC_CONFIG, type SyncConfig } from '../sync/sync-config.js';
+import type { RunSpotCheckDto, SpotCheckPointDto, SpotCheckReportDto } from './dto/spot-check.dto.js';
+import { runInWorkers } from './spot-check-runner.js';
+
+/** K keys drawn without replacement by a seeded shuffle of the sorted keys (the CLI's rule). */
+export function samplePointKeys(keys: string[], k: number, seed: number): string[] {
+  const sorted = [...keys].sort();
+  const random = mulberry32(seed);
+  for (let i = sorted.length - 1; i > 0; i--) {
+    const j = Math.floor(random() * (i + 1));
+    [sorted[i], sorted[j]] = [sorted[j], sorted[i]];
+  }
+  return sorted.slice(0, Math.min(k, sorted.length)).sort();
+}
+
+/** Re-runs sampled points of a stored map with physics-core in worker threads and stores the report. */
+@Injectable()
+export class SpotChecksService {
+  private readonly running = new Map<string, number>();
+  private total = 0;
+
+  constructor(
+    @InjectConnection() private readonly sequelize: Sequelize,
+    @Inject(SYNC_CONFIG) private readonly config: SyncConfig,
+    private readonly maps: MapsService,
+  ) {}
+
+  async run(access: ProjectAccess, userId: string, mapId: string, body: RunSpotCheckDto): Promise<SpotCheckReportDto> {
+    const limits = this.config.spotCheck;
+    if (body.sample > limits.maxSample) {
+      throw new BadRequestException({ message: `sample must be at most ${limits.maxSample} points per spot-check (PW_SPOT_CHECK_MAX_SAMPLE)`, details: [{ path: 'sample', problems: [`sample must not be greater than ${limits.maxSample}`] }] });
+    }
+    if ((this.running.get(userId) ?? 0) >= limits.perUser) {
+      throw new HttpException({ message: `You already have ${limits.perUser} spot-check${limits.perUser > 1 ? 's' : ''} running (PW_SPOT_CHECK_PER_USER); wait for it to finish`, details: { running: limits.perUser } }, HttpStatus.TOO_MANY_REQUESTS);
+    }
+    if (this.total >= limits.maxRunning) {
+      throw new HttpException({ message: `The server is running ${limits.maxRunning} spot-checks already (PW_SPOT_CHECK_MAX_RUNNING); try again in a minute`, details: null }, HttpStatus.TOO_MANY_REQUESTS);
+    }
+    // Counted before the first await, so parallel requests see each other.
+    this.running.set(userId, (this.running.get(userId) ?? 0) + 1);
+    this.total++;
+    try {
+      const row = await this.maps.find(access.projectId, mapId);
+      if (body.reviewId) {
+        const r = await this.sequelize.query('SELECT id FROM reviews WHERE id = ? AND map_pk = ?', { type: QueryTypes.SELECT, replacements: [body.reviewId, row.pk] });
+        if (r.length === 0) throw new NotFoundException({ message: 'No such review of this map', details: null });
+      }
+      return await this.execute(access.projectId, userId, row.pk, row.id, JSON.parse(row.sweep) as SweepSpec, body);
+    } finally {
+      this.total--;
+      const left = (this.running.get(userId) ?? 1) - 1;
+      if (left > 0) this.running.set(userId, left);
+      else this.running.delete(userId);
+    }
+  }
+
+  private async execute(projectId: string, userId: string, mapPk: number, mapId: string, sweep: SweepSpec, body: RunSpotCheckDto): Promise<SpotCheckReportDto> {
+    const seed = body.seed ?? 1;
+    const allKeys = (await this.sequelize.query<{ k: string }>('SELECT point_key AS k FROM map_points WHERE map_pk = ?', { type: QueryTypes.SELECT, replacements: [mapPk] })).map((r) => r.k);
+    if (allKeys.length === 0) throw new BadRequestException({ message: 'The map has no points to re-run yet', details: null });
+    const keys = samplePointKeys(allKeys, body.sample, seed);
+    const stored = await this.maps.points(mapPk, keys);
+    const runtime = { kind: 'node' as const, version: process.version, cores: os.availableParallelism() };
+    const context = {
+      model: sweep.model,
+      axes: sweep.axes.map((a) => a.parameter),
+      method: sweep.method,
+      solver: sweep.solver ?? {},
+      seed: sweep.seed ?? 0,
+      runtime,
+      ...(sweep.observables ? { observables: sweep.observables } : {}),
+    };
+    // One point per segment: every re-run starts cold, independent of the original path.
+    const jobs: SegmentJob[] = keys.map((key) => ({ context, items: [{ key, parameters: stored[key].parameters, coords: [], level: stored[key].level }] }));
+    const t0 = performance.now();
+    const events = await runInWorkers(jobs, this.config.spotCheck.workers, this.config.spotCheck.timeoutS * 1000);
+    const totalMs = performance.now() - t0;
+    const fresh = new Map<string, MapPoint>();
+    const failures = new Map<string, string>();
+    for (const e of events) {
+      if (e.kind === 'point') fresh.set(e.key, e.point);
+      else failures.set(e.key, e.message);
+    }
+    const tolerance = sweep.method === 'ed' ? 1e-8 : 1e-6;
+    let maxAbs = 0;
+    let maxRel = 0;
+    let agree = 0;
+    let compared = 0;
+    let pointsMs = 0;
+    const points: SpotCheckPointDto[] = keys.map((key) => {
+      const old = stored[key];
+      const p: SpotCheckPointDto = { key, parameters: old.parameters, storedEnergy: old.energy, ...(old.label ? { storedLabel: old.label.id } : {}) };
+      const f = fresh.get(key);
+      if (!f) {
+        p.failed = failures.get(key) ?? 'no result';
+        return p;
+      }
+      const d = Math.abs(f.energy - old.energy);
+      const rel = d / Math.max(Math.abs(old.energy), 1e-300);
+      maxAbs = Math.max(maxAbs, d);
+      maxRel = Math.max(maxRel, rel);
+      pointsMs += f.wallMs;
+      Object.assign(p, { freshEnergy: f.energy, absEnergyDifference: d, relEnergyDifference: rel, converged: f.convergence.converged, wallMs: f.wallMs });
+      if (f.label) p.freshLabel = f.label.id;
+      if (f.label && old.label) {
+        compared++;
+        p.labelsAgree = f.label.id === old.label.id;
+        if (p.labelsAgree) agree++;
+      }
+      return p;
+    });
+    const failed = points.filter((p) => p.failed !== undefined).length;
+    const report = {
+      sample: keys.length,
+      seed,
+      tolerance,
+      points,
+      maxAbsEnergyDifference: maxAbs,
+      maxRelEnergyDifference: maxRel,
+      labelsAgree: agree,
+      labelsCompared: compared,
+      failed,
+      pass: failed === 0 && maxRel <= tolerance && agree === compared,
+      timing: { totalMs: Math.round(totalMs), pointsMs: Math.round(pointsMs), workers: Math.min(this.config.spotCheck.workers, keys.length) },
+      runtime: { node: process.version, platform: `${process.platform}-${process.arch}`, cpus: os.availableParallelism(), coreVersion: CORE_VERSION, serverVersion },
+    };
+    const id = randomUUID();
+    await this.sequelize.query('INSERT INTO spot_checks (id, project_id, map_pk, review_id, requested_by, sample, seed, pass, report) VALUES (?, ?, ?, ?, ?, ?, ?, ?, ?)', {
+      replacements: [id, projectId, mapPk, body.reviewId ?? null, userId, keys.length, seed, report.pass, JSON.stringify(report)],
+    });
+    return { id, mapId, reviewId: body.reviewId ?? null, requestedBy: userId, createdAt: new Date(), ...report };
+  }
+
+  /** Stored reports of a map (newest first), optionally only those of one review. */
+  async list(projectId: string, mapId: string, reviewId?: string): Promise<SpotCheckReportDto[]> {
+    const row = await this.maps.find(projectId, mapId);
+    const rows = await this.sequelize.query<{ id: string; reviewId: string | null; requestedBy: string | null; createdAt: Date; report: string }>(
+      `SELECT id, review_id AS reviewId, requested_by AS requestedBy, created_at AS createdAt, report FROM spot_checks WHERE map_pk = ?${reviewId ? ' AND review_id = ?' : ''} ORDER BY created_at DESC, id`,
+      { type: QueryTypes.SELECT, replacements: reviewId ? [row.pk, reviewId] : [row.pk] },
+    );
+    return rows.map((r) => ({ id: r.id, mapId: row.id, reviewId: r.reviewId, requestedBy: r.requestedBy, createdAt: r.createdAt, ...(JSON.parse(r.report) as Omit<SpotCheckReportDto, 'id' | 'mapId' | 'reviewId' | 'requestedBy' | 'createdAt'>) }));
+  }
+}
