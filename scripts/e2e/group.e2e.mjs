@@ -2,6 +2,7 @@
 //   1. An owner creates a project and invites a collaborator by e-mail from the members page; a
 //      site admin opens the captured message on the admin Mail page; the invitee follows its
 //      link, registers and sees the project; the owner sees the new member and changes the role.
+//   3. Compare: an ED cut and a mean-field cut of one model, side by side, difference map, overlay.
 //   2. The offline journey: the editor goes offline, creates a model and runs a sweep in the
 //      shared project, reloads while still offline (app and map are there), comes back online and
 //      the map syncs; another member pulls it and sees the same identity, point count and digest.
@@ -253,6 +254,48 @@ export const tests = [
       } finally {
         await other.close();
       }
+    },
+  },
+  {
+    name: 'compare: an ED cut and a mean-field cut of one model side by side, difference map, boundary overlay',
+    async run({ baseUrl, page, screenshot }) {
+      // Signed out: the local space is enough.
+      await page.goto(`${baseUrl}/models/new`);
+      await page.getByText('The model is valid.').waitFor();
+      await page.locator('[data-path="$.name"]').fill(`compare chain ${run}`);
+      await page.getByRole('button', { name: 'Save model' }).click();
+      await page.waitForURL(/\/models\/[0-9a-f-]{36}$/);
+      const modelUrl = page.url();
+      const mapIds = [];
+      for (const method of ['ed', 'meanfield']) {
+        await page.goto(modelUrl);
+        await page.getByRole('button', { name: 'Sweep this model →' }).click();
+        await page.getByRole('form', { name: 'Sweep' }).waitFor();
+        await page.locator('[data-path="$.name"]').fill(`${method} cut ${run}`);
+        await page.selectOption('[data-path="$.method"]', method);
+        await page.selectOption('[data-path="$.axes[0].parameter"]', 'V');
+        await page.locator('[data-path="$.axes[0].from"]').fill('0');
+        await page.locator('[data-path="$.axes[0].to"]').fill('4');
+        await page.locator('[data-path="$.axes[0].points"]').fill('9');
+        await page.getByRole('button', { name: 'Create sweep and start' }).click();
+        await page.waitForURL(/\/sweeps\//);
+        await page.locator('[data-run-state="done"]').waitFor({ timeout: 25_000 });
+        await page.getByRole('link', { name: 'Open the map' }).click();
+        await page.waitForURL(/\/maps\//);
+        mapIds.push(page.url().split('/').pop());
+      }
+      await page.getByRole('link', { name: 'Compare with…' }).click();
+      await page.getByRole('combobox', { name: 'Map B' }).selectOption(mapIds[0]);
+      const comparison = page.getByTestId('comparison');
+      await comparison.waitFor();
+      assert.equal(await comparison.getAttribute('data-common'), '9', 'both cuts share their 9 points');
+      await page.getByText('Read the differences with care').waitFor();
+      await page.getByRole('combobox', { name: 'Observable' }).selectOption('energy');
+      const cells = await page.getByRole('region', { name: 'Difference map' }).locator('[data-point]').count();
+      assert.equal(cells, 9);
+      const worst = await page.locator('[data-observable="energyPerSite"] td').nth(2).textContent();
+      console.log(`     compare: max |E/N (ED, 8 sites) − E/N (mean-field)| = ${worst}; ${await page.getByTestId('comparison-summary').textContent()}`);
+      await screenshot('group-9-compare');
     },
   },
 ];

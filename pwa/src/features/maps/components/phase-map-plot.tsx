@@ -26,13 +26,15 @@ interface Props {
   onSelect: (cell: MapCell) => void;
   title: string;
   width?: number;
+  /** A second map's boundaries drawn over this one (dashed, accent colour), for comparing. */
+  overlayBoundaries?: Boundary[];
 }
 
 const M = { top: 30, right: 16, bottom: 44, left: 58 };
 const INK = '#1d2640';
 
 export const PhaseMapPlot = forwardRef<SVGSVGElement, Props>(function PhaseMapPlot(
-  { sweep, cells, colouring, boundaries, selectedKeys, onHover, onSelect, title, width = 620 },
+  { sweep, cells, colouring, boundaries, selectedKeys, onHover, onSelect, title, width = 620, overlayBoundaries = [] },
   ref,
 ) {
   const axes = axisInfo(sweep);
@@ -91,6 +93,18 @@ export const PhaseMapPlot = forwardRef<SVGSVGElement, Props>(function PhaseMapPl
               ) : c.point.observables.degenerate === 1 ? (
                 <circle cx={x0 + w / 2} cy={y0 + h / 2} r={Math.min(4, w / 4, h / 4)} fill="none" stroke={INK} strokeWidth={1} pointerEvents="none" />
               ) : null}
+            </g>
+          );
+        })}
+        {overlayBoundaries.map((b, i) => {
+          const pts = b.vertices.map((v) => ({ px: x(v.at[axes[0].parameter]) ?? 0, py: y ? (y(v.at[axes[1].parameter]) ?? 0) : ih / 2 }));
+          return (
+            <g key={`o${i}`} data-overlay-boundary={b.between.join('|')} pointerEvents="none">
+              {twoD ? (
+                <polyline points={pts.map((p) => `${p.px},${p.py}`).join(' ')} fill="none" stroke="#b3541e" strokeWidth={2.2} strokeDasharray="6 4" strokeLinejoin="round" />
+              ) : (
+                pts.map((p, j) => <line key={j} x1={p.px} x2={p.px} y1={-4} y2={ih + 4} stroke="#b3541e" strokeWidth={2.2} strokeDasharray="6 4" />)
+              )}
             </g>
           );
         })}
