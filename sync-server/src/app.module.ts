@@ -23,6 +23,7 @@ import { SyncModule } from './sync/sync.module.js';
 import { ReviewsModule } from './reviews/reviews.module.js';
 import { SpotChecksModule } from './spot-checks/spot-checks.module.js';
 import { ExportsModule } from './exports/exports.module.js';
+import { UploadsModule } from './uploads/uploads.module.js';
 
 export const appConfig = (config: AppConfig) => registerAs('app', () => config);
 
@@ -60,6 +61,7 @@ export class AppModule {
       SpotChecksModule,
       ReviewsModule,
       ExportsModule,
+      UploadsModule,
     ];
     if (fs.existsSync(path.join(config.pwaDist, 'index.html'))) {
       // Static files first; any other GET outside /api gets index.html (client-side routes).
