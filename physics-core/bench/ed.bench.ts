@@ -37,14 +37,31 @@ const compare = process.argv.includes('--compare');
 const mb = (b: number): string => `${(b / 2 ** 20).toFixed(0)} MB`;
 const ms = (x: number): string => `${x.toFixed(0)} ms`;
 
-console.log(`node ${process.version}; one thread; load average ${(await import('node:os')).loadavg().map((x) => x.toFixed(1)).join(' ')}`);
+/** A fixed reference workload (a dependent sum over 16 MB), best of 5: compare runs on a loaded machine by it. */
+function calibrationMs(): number {
+  const a = new Float64Array(2 ** 21).fill(1);
+  let best = Infinity;
+  for (let rep = 0; rep < 5; rep++) {
+    const t = performance.now();
+    let s = 0;
+    for (let i = 0; i < a.length; i++) s += a[i];
+    if (s !== a.length) throw new Error('calibration sum is wrong');
+    best = Math.min(best, performance.now() - t);
+  }
+  return best;
+}
+
+console.log(
+  `node ${process.version}; one thread; load average ${(await import('node:os')).loadavg().map((x) => x.toFixed(1)).join(' ')}; ` +
+    `reference sum of 2^21 doubles ${calibrationMs().toFixed(2)} ms (a fixed workload: compare runs by it; larger means other processes slowed this run)`,
+);
 for (const L of sizes) {
   if (!Number.isInteger(L) || L % 2 !== 0 || L < 4) throw new Error(`--sizes: ${L} is not an even number of sites ≥ 4`);
   const model = compileModel(spec(L));
   const est = estimateOperator(model);
   const t0 = performance.now();
   const cpu0 = process.cpuUsage();
-  const solver = new EdSolver({ states: 2, memoryBudgetBytes: 1.9 * 2 ** 30 });
+  const solver = new EdSolver({ states: 2 });
   const { result, operator } = solver.solve(model);
   const total = performance.now() - t0;
   const cpu = process.cpuUsage(cpu0);
@@ -65,7 +82,7 @@ for (const L of sizes) {
       `nnz=${est.nnz}`,
       `storage=${operator.storage} (${mb(operator.bytes)})`,
       `build=${ms(extras.timing.operatorMs)}`,
-      `matvec=${matvec.toFixed(1)} ms (${((est.nnz + operator.dimension) / (matvec / 1000) / 1e6).toFixed(0)} M nonzeros/s)`,
+      `matvec=${matvec.toFixed(1)} ms (${((matvec * 1e6) / est.nnz).toFixed(2)} ns per off-diagonal nonzero, ${((est.nnz + operator.dimension) / (matvec / 1000) / 1e6).toFixed(0)} M nonzeros/s)`,
       `lanczos=${ms(extras.timing.lanczosMs)} (${result.convergence.iterations} H·x of which ${extras.verificationIterations} degeneracy check, ${extras.eigenFallbacks} fallbacks, residual ${result.convergence.residual.toExponential(1)}, converged ${result.convergence.converged})`,
       `ground state (build+Lanczos)=${ms(groundMs)}`,
       `observables=${ms(extras.timing.observablesMs)}`,

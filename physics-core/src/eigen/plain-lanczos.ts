@@ -128,10 +128,9 @@ export function plainLanczos(
       beta = grow(beta);
     }
     const a = step(prev, cur, m > 0 ? beta[m - 1] : 0, w);
-    subtractScaledReal(w, cur, a);
+    const b = Math.sqrt(subtractAndNorm(w, cur, a));
     iterations++;
     alpha[m] = a;
-    const b = norm2(w);
     beta[m] = b;
     m++;
     normEstimate = Math.max(normEstimate, Math.abs(a), b);
@@ -193,7 +192,11 @@ export function plainLanczos(
   // Ritz vectors x_i = Σ_j s_{j,i} v_j (j < m).
   const X = chosen.map(() => new Float64Array(len));
   const accumulate = (j: number, v: Float64Array): void => {
-    for (let i = 0; i < chosen.length; i++) if (j < chosen[i].s.length) addScaledReal(X[i], v, chosen[i].s[j]);
+    addScaledMany(
+      X,
+      chosen.map((g) => (j < g.s.length ? g.s[j] : 0)),
+      v,
+    );
   };
   // Vectors past the last step any chosen pair uses are not needed.
   m = chosen.reduce((x, g) => Math.max(x, g.s.length), 0);
@@ -208,7 +211,7 @@ export function plainLanczos(
     for (let j = fromStore; j < m; j++) {
       const w = buffers.find((r) => r !== p && r !== c) as Float64Array;
       const a = step(p, c, j >= 2 ? beta[j - 2] : 0, w);
-      subtractScaledReal(w, c, a);
+      subtractAndNorm(w, c, a);
       secondPassIterations++;
       scale(w, 1 / beta[j - 1]);
       accumulate(j, w);
@@ -347,15 +350,35 @@ function subtractAndDot(w: Float64Array, prev: Float64Array | null, b: number, c
   return s0 + s1;
 }
 
-function subtractScaledReal(w: Float64Array, x: Float64Array, a: number): void {
+/** w ← w − a·x, returns ‖w‖² (one pass). */
+function subtractAndNorm(w: Float64Array, x: Float64Array, a: number): number {
   const n = w.length;
-  for (let q = 0; q < n; q++) w[q] -= a * x[q];
+  let s0 = 0;
+  let s1 = 0;
+  for (let q = 0; q < n; q += 2) {
+    const u = w[q] - a * x[q];
+    const v = w[q + 1] - a * x[q + 1];
+    w[q] = u;
+    w[q + 1] = v;
+    s0 += u * u;
+    s1 += v * v;
+  }
+  return s0 + s1;
 }
 
-function addScaledReal(y: Float64Array, x: Float64Array, a: number): void {
-  if (a === 0) return;
-  const n = y.length;
-  for (let q = 0; q < n; q++) y[q] += a * x[q];
+/** X[i] += c[i]·v for every i (v read once; X[i] blocks stay in cache). */
+function addScaledMany(X: Float64Array[], c: number[], v: Float64Array): void {
+  const n = v.length;
+  const block = 4096;
+  for (let start = 0; start < n; start += block) {
+    const end = Math.min(n, start + block);
+    for (let i = 0; i < X.length; i++) {
+      const a = c[i];
+      if (a === 0) continue;
+      const y = X[i];
+      for (let q = start; q < end; q++) y[q] += a * v[q];
+    }
+  }
 }
 
 /** Modified Gram–Schmidt in place (twice); drops vectors that are linearly dependent. */

@@ -12,13 +12,12 @@ import {
   compileDirectedMoves,
   countMoves,
   fillCoefficients,
-  fillDiagonal,
   structureKey,
   type DiagonalTerms,
   type DirectedMoves,
 } from './directed-terms.js';
 import { buildCsr, csrBytes, csrMatvec, type CsrComplex } from './csr-complex.js';
-import { matrixFreeMatvec } from './matrix-free.js';
+import { buildSplitPlan, fillDiagonalSplit, matrixFreeMatvec, splitPlanBytes, type SplitPlan } from './matrix-free.js';
 
 export type OperatorStorage = 'csr' | 'matrix-free';
 
@@ -48,7 +47,7 @@ export function checkEdOperatorOptions(options: EdOperatorOptions = {}): Require
 /** What an operator will cost, computed from the model alone before any allocation. */
 export interface OperatorEstimate {
   dimension: number;
-  /** Off-diagonal elements stored by CSR (exact). */
+  /** Off-diagonal elements of H (exact); CSR stores the half above the diagonal. */
   nnz: number;
   basisBytes: number;
   diagonalBytes: number;
@@ -112,6 +111,7 @@ export class EdOperator {
   private moves: DirectedMoves;
   private diagonalTerms: DiagonalTerms;
   private csr: CsrComplex | null;
+  private plan: SplitPlan | null;
   private structure: string;
   private readonly options: Required<EdOperatorOptions>;
   /** Milliseconds spent building (basis + sparse structure + diagonal). */
@@ -129,8 +129,10 @@ export class EdOperator {
     this.table = new Float64Array(2 * this.moves.coefficientCount);
     fillCoefficients(model, this.table);
     this.diagonal = new Float64Array(this.basis.dimension);
-    fillDiagonal(this.basis.states, this.diagonalTerms, this.diagonal);
-    this.csr = this.storage === 'csr' ? buildCsr(this.basis, this.moves, this.nnz) : null;
+    fillDiagonalSplit(this.basis, this.diagonalTerms, this.diagonal);
+    const plan = buildSplitPlan(this.basis, this.moves);
+    this.csr = this.storage === 'csr' ? buildCsr(this.basis, plan, this.moves.coefficientCount, this.nnz) : null;
+    this.plan = this.storage === 'matrix-free' ? plan : null;
     this.structure = structureKey(model);
     this.buildMs = now() - started;
   }
@@ -144,14 +146,16 @@ export class EdOperator {
     const b = this.basis;
     let total = b.states.byteLength + b.rankOfLow.byteLength + b.offsetOfHigh.byteLength;
     total += this.diagonal.byteLength + this.table.byteLength;
-    if (this.csr) total += this.csr.rowStart.byteLength + this.csr.column.byteLength + this.csr.coefficient.byteLength;
+    const csr = this.csr;
+    if (csr) total += csr.rowStart.byteLength + (csr.packed ?? csr.column ?? new Int32Array(0)).byteLength + (csr.coefficient?.byteLength ?? 0);
+    if (this.plan) total += splitPlanBytes(this.plan);
     return total;
   }
 
   /** y = H x (interleaved complex; x and y must not alias). */
   matvec(x: Float64Array, y: Float64Array): void {
     if (this.csr) csrMatvec(this.csr, this.table, this.diagonal, x, y);
-    else matrixFreeMatvec(this.basis, this.moves, this.table, this.diagonal, x, y);
+    else matrixFreeMatvec(this.basis, this.plan as SplitPlan, this.table, this.diagonal, x, y);
   }
 
   /**
@@ -165,7 +169,7 @@ export class EdOperator {
     if (structureKey(model) === this.structure) {
       fillCoefficients(model, this.table);
       this.diagonalTerms = compileDiagonalTerms(model);
-      fillDiagonal(this.basis.states, this.diagonalTerms, this.diagonal);
+      fillDiagonalSplit(this.basis, this.diagonalTerms, this.diagonal);
       this.buildMs = now() - started;
       return 'reweighted';
     }
@@ -178,6 +182,7 @@ export class EdOperator {
     this.moves = fresh.moves;
     this.diagonalTerms = fresh.diagonalTerms;
     this.csr = fresh.csr;
+    this.plan = fresh.plan;
     this.structure = fresh.structure;
     this.buildMs = now() - started;
     return 'rebuilt';
