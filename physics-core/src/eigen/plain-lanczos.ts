@@ -71,7 +71,8 @@ export function plainLanczos(
   const { states: k, tolerance, maxIterations, seed, locked } = opts;
   const len = 2 * dimension;
   const free = dimension - locked.length;
-  const maxStored = Math.max(2, Math.floor(storeBytes / (8 * len)));
+  // Values only: nothing to keep beyond the three vectors of the recurrence.
+  const maxStored = wantVectors ? Math.max(2, Math.floor(storeBytes / (8 * len))) : 1;
   const lRe = new Float64Array(locked.length);
   const lIm = new Float64Array(locked.length);
 
