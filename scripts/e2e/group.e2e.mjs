@@ -20,7 +20,7 @@ const address = (who) => `${who}.${run}@example.org`;
 /** Accounts made by earlier tests of this run (registrations are rate-limited per address). */
 const accounts = {};
 /** The project of the first test (owner: 'owner'; 'invitee' is a member), reused by later ones. */
-const shared = { projectId: null, projectName: null };
+const shared = { projectId: null, projectName: null, mapUrl: null };
 
 /** @param {import('playwright-core').Page} page */
 async function register(page, baseUrl, who, displayName) {
@@ -213,6 +213,7 @@ export const tests = [
       await page.getByRole('link', { name: 'Open the map' }).click();
       await page.waitForURL(/\/maps\//);
       const mapUrl = page.url();
+      shared.mapUrl = mapUrl;
 
       // Reload while still offline: the app (service worker) and the map (IndexedDB) are there.
       await page.reload();
@@ -296,6 +297,69 @@ export const tests = [
       const worst = await page.locator('[data-observable="energyPerSite"] td').nth(2).textContent();
       console.log(`     compare: max |E/N (ED, 8 sites) − E/N (mean-field)| = ${worst}; ${await page.getByTestId('comparison-summary').textContent()}`);
       await screenshot('group-9-compare');
+    },
+  },
+  {
+    name: 'conflict journey: two members rename the same phase label, one offline; the second push shows a conflict; resolving it leaves one agreed name on both',
+    async run({ baseUrl, page, screenshot }) {
+      if (!shared.mapUrl || !accounts.invitee) {
+        console.log('     skipped: needs the offline journey of this run (its shared map and second member)');
+        return;
+      }
+      const rename = async (p, from, to) => {
+        const entry = p.locator('[data-label="superfluid"]').filter({ has: p.getByTestId('legend-name') });
+        await entry.getByRole('button', { name: /^Rename/ }).click();
+        await p.getByRole('textbox', { name: /^New name for/ }).fill(to);
+        await p.getByRole('button', { name: 'Save', exact: true }).click();
+        await p.getByTestId('legend-name').filter({ hasText: to }).waitFor();
+      };
+      // The owner makes the second member an editor (members page).
+      await signIn(page, baseUrl, 'owner');
+      await page.goto(`${baseUrl}/projects/${shared.projectId}/members`);
+      await page.locator(`[data-member="${address('invitee')}"]`).getByRole('combobox').selectOption('editor');
+      await page.waitForResponse((r) => r.url().includes('/members/') && r.request().method() === 'PATCH' && r.ok());
+
+      const other = await launchFreshContext();
+      try {
+        const opage = other.context.pages()[0] ?? (await other.context.newPage());
+        await signIn(opage, baseUrl, 'invitee');
+        await syncPhase(opage, 'up-to-date');
+        await opage.goto(shared.mapUrl);
+        await opage.getByTestId('map-view').waitFor();
+        // The member renames while offline …
+        await other.context.setOffline(true);
+        await rename(opage, 'superfluid', 'liquid (member)');
+        await syncPhase(opage, 'offline');
+        // … the owner renames the same label online (pushed at once).
+        await page.goto(shared.mapUrl);
+        await page.getByTestId('map-view').waitFor();
+        await rename(page, 'superfluid', 'liquid (owner)');
+        await syncPhase(page, 'up-to-date');
+        // The member comes back: the push is refused as stale and shows a conflict.
+        await other.context.setOffline(false);
+        await syncPhase(opage, 'conflict', 30_000);
+        await opage.getByTestId('sync-badge').click();
+        const card = opage.locator('[data-conflict]');
+        await card.waitFor();
+        assert.equal(await card.locator('[data-side="mine"][data-field="name"]').textContent(), 'liquid (member)');
+        assert.equal(await card.locator('[data-side="theirs"][data-field="name"]').textContent(), 'liquid (owner)');
+        await screenshot('group-10-conflict', opage);
+        await card.getByRole('button', { name: 'Edit a combined name' }).click();
+        await opage.getByRole('textbox', { name: 'Agreed name' }).fill('superfluid liquid (agreed)');
+        await opage.getByRole('button', { name: 'Save and push' }).click();
+        await syncPhase(opage, 'up-to-date', 20_000);
+        await opage.goto(shared.mapUrl);
+        await opage.getByTestId('legend-name').filter({ hasText: 'superfluid liquid (agreed)' }).waitFor();
+        // The owner pulls (Sync now on the sync page) and sees the agreed name too.
+        await page.getByTestId('sync-badge').click();
+        await page.getByRole('button', { name: 'Sync now' }).click();
+        await syncPhase(page, 'up-to-date');
+        await page.goto(shared.mapUrl);
+        await page.getByTestId('legend-name').filter({ hasText: 'superfluid liquid (agreed)' }).waitFor();
+        await screenshot('group-11-agreed');
+      } finally {
+        await other.close();
+      }
     },
   },
 ];
