@@ -295,6 +295,13 @@ describe('map sync against the private MariaDB', () => {
     expect(await snapshot()).toBe(before);
   });
 
+  it('refuses pushes to an archived project', async () => {
+    await request(server).post(`/api/projects/${projectId}/archive`).set('authorization', bearer(owner)).expect(200);
+    const res = await push(editor, { batchId: randomUUID(), changes: [{ kind: 'note', id: randomUUID(), data: { text: 'late' } }] }).expect(409);
+    expect(res.body.details).toEqual({ reason: 'archived' });
+    await request(server).post(`/api/projects/${projectId}/unarchive`).set('authorization', bearer(owner)).expect(200);
+  });
+
   it('lets only editors and owners push; viewers pull', async () => {
     const res = await push(viewer, { batchId: randomUUID(), changes: [{ kind: 'note', id: randomUUID(), data: { text: 'hi' } }] }).expect(403);
     expect(res.body.message).toMatch(/viewer/);

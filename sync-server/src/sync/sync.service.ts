@@ -68,6 +68,8 @@ export class SyncService {
         details: { points, limit: this.config.maxPointsPerBatch },
       });
     }
+    const [project] = await this.sequelize.query<{ archivedAt: Date | null }>('SELECT archived_at AS archivedAt FROM projects WHERE id = ?', { type: QueryTypes.SELECT, replacements: [access.projectId] });
+    if (project?.archivedAt) throw new ConflictException({ message: 'The project is archived (read-only); an owner can unarchive it', details: { reason: 'archived' } });
     const prepared = this.prepare(input.changes);
     for (let attempt = 1; ; attempt++) {
       try {
