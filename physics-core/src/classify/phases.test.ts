@@ -4,6 +4,7 @@ import type { Result } from '../result.js';
 import { solveMeanField } from '../meanfield/gutzwiller.js';
 import { xxzSpec } from '../meanfield/test-helpers.js';
 import { classifyPoint } from './phases.js';
+import { solve } from '../solve.js';
 
 function synthetic(over: Partial<Result>): Result {
   return {
@@ -72,5 +73,28 @@ describe('classifyPoint on synthetic observables', () => {
     const bad = classifyPoint(synthetic({ condensateFraction: 0.3, convergence: { converged: false, iterations: 1, residual: 1 } })).label.confidence;
     expect(bad).toBeCloseTo(good / 2, 12);
     expect(() => classifyPoint(synthetic({}), { densityWave: -1 })).toThrow(/classify\.densityWave/);
+  });
+});
+
+describe('classifyPoint on ED points', () => {
+  // Periodic 12-site chain at half filling, H = −J Σ(b†b + h.c.) + V Σ n n: by the boson–spin
+  // mapping (Matsubara & Matsuda, Prog. Theor. Phys. 1956) the XXZ chain with Δ = V/2J, a
+  // critical (quasi-condensed) liquid for Δ ≤ 1 and a gapped Néel (density wave at q = π) for
+  // Δ > 1 (Yang & Yang, Phys. Rev. 1966). Both signals are finite on 12 sites at moderate V.
+  const chain = (V: number) => solve(xxzSpec('chain', [12], V), { method: 'ed' });
+
+  it('free bosons are superfluid; strong repulsion gives a density wave at q = π, not a supersolid', () => {
+    expect(chain(0).label?.id).toBe('superfluid');
+    const dw = chain(8).label!;
+    expect(dw.id).toBe('density-wave');
+    expect((dw.evidence.orderingVector as number[])[0]).toBeCloseTo(Math.PI, 9);
+  });
+
+  it('never calls one cluster a supersolid: with both signals it names the stronger and keeps the other', () => {
+    for (const V of [1, 2, 3, 4]) {
+      const label = chain(V).label!;
+      expect(label.id).not.toBe('supersolid');
+      if (label.evidence.secondary !== undefined) expect(['superfluid', 'density-wave']).toContain(label.id);
+    }
   });
 });

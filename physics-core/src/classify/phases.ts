@@ -6,7 +6,8 @@
  * - superfluid: condensateFraction ≥ `superfluidFraction`;
  * - density wave: (max_{q≠0} S(q) − min_q S(q))/Ns ≥ `densityWave` (ordering vector = the q of the
  *   maximum; subtracting the minimum removes the q-independent local part);
- * - supersolid: both;
+ * - supersolid: both (mean-field only: on one ED cluster both signals are always finite, so ED
+ *   labels the stronger one relative to its threshold and keeps the other under `secondary`);
  * - chiral superfluid: superfluid with a uniform loop circulation |mean circulation| ≥ `current`;
  * - flux/vortex lattice: staggered circulation (rms deviation from the mean) ≥ `current`, or a
  *   staggered effective flux (mean-field extras) ≥ `flux`;
@@ -125,7 +126,15 @@ export function classifyPoint(result: Result, options: ClassifyOptions = {}): Cl
   signals.sort((a, b) => b.confidence - a.confidence);
   const find = (id: string): PhaseLabel | undefined => signals.find((s) => s.id === id);
   let label: PhaseLabel;
-  if (isSf && isDw) {
+  if (isSf && isDw && result.method === 'ed') {
+    // One finite cluster at fixed N always shows some condensate and some density correlation;
+    // without finite-size scaling a supersolid cannot be told apart, so ED names the stronger
+    // signal (relative to its threshold) and keeps the other as evidence.
+    const sfStronger = sf / o.superfluidFraction >= dw / o.densityWave;
+    const main = find(sfStronger ? 'superfluid' : 'density-wave')!;
+    const other = find(sfStronger ? 'density-wave' : 'superfluid')!;
+    label = { ...main, evidence: { ...main.evidence, secondary: { id: other.id, ...other.evidence }, note: 'both signals present on a finite cluster; supersolid needs finite-size scaling' } };
+  } else if (isSf && isDw) {
     const a = find('superfluid')!;
     const b = find('density-wave')!;
     label = { id: 'supersolid', confidence: Math.min(a.confidence, b.confidence), evidence: { ...a.evidence, ...b.evidence } };
