@@ -7,11 +7,9 @@ import path from 'node:path';
 import type { AppConfig } from './config/app-config.js';
 import { MODELS } from './database/models.js';
 import { sequelizeOptions } from './database/sequelize-options.js';
-import { HealthController } from './health/health.controller.js';
 import { HealthModule } from './health/health.module.js';
 import { AuthModule } from './auth/auth.module.js';
 import { loadAccountsConfig } from './common/accounts-config.js';
-import { Public } from './common/decorators.js';
 import { ACCOUNT_MODELS } from './common/account-models.js';
 import { SecurityModule } from './common/security.module.js';
 import { MailModule } from './mail/mail.module.js';
@@ -27,8 +25,6 @@ import { UploadsModule } from './uploads/uploads.module.js';
 
 export const appConfig = (config: AppConfig) => registerAs('app', () => config);
 
-// The health report stays public under the app-wide JWT guard (npm start and monitors poll it).
-Public()(HealthController);
 
 /** Paths under /api never fall back to the PWA's index.html: they get the JSON 404. */
 const API_PATHS = /^\/api(\/|$)/;
