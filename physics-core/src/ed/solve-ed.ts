@@ -28,7 +28,7 @@ export interface EdOptions {
   tolerance?: number;
   /** Largest number of H·x products. @default 3000 */
   maxIterations?: number;
-  /** Lanczos basis vectors per restart window. @default max(16, 2·states + 10) (see lanczos.ts) */
+  /** Basis vectors per restart window of the thick-restart fallback (the main solver, plain-lanczos.ts, has no window). @default max(16, 2·states + 10) (see lanczos.ts) */
   windowSize?: number;
   /** Seed of the random start vector. @default 1 */
   seed?: number;
@@ -119,10 +119,12 @@ export class EdSolver {
     const operatorOptions = { storage: o.storage, memoryBudgetBytes: o.memoryBudgetBytes, reservedBytes: reserved };
     const estimate = estimateOperator(model);
     const storage = chooseStorage(estimate, checkEdOperatorOptions(operatorOptions));
-    // What the budget leaves after the operator and the vectors that always exist (results, work
-    // vectors, the degeneracy check's) may hold Lanczos vectors instead of recomputing them.
+    // What the budget leaves after the operator and the vectors that exist beside the kept Lanczos
+    // vectors (the recurrence's three, the `states` Ritz vectors being summed, one spare) may
+    // hold Lanczos vectors instead of recomputing them (plain-lanczos.ts releases them before
+    // its Rayleigh–Ritz step and the degeneracy check keeps none).
     const operatorBytes = storage === 'csr' ? estimate.totalCsrBytes : estimate.totalMatrixFreeBytes;
-    const vectorStoreBytes = Math.max(0, o.memoryBudgetBytes - operatorBytes - 16 * dimension * (2 * states + 8));
+    const vectorStoreBytes = Math.max(0, o.memoryBudgetBytes - operatorBytes - 16 * dimension * (states + 4));
     let rebuilt = true;
     if (this.operator) rebuilt = this.operator.update(model) === 'rebuilt';
     else this.operator = new EdOperator(model, operatorOptions);
@@ -205,6 +207,7 @@ export class EdSolver {
     extras.verificationIterations = eig.verificationIterations;
     extras.recoveredStates = eig.recovered;
     extras.eigenFallbacks = eig.fallbacks;
+    extras.secondPassIterations = eig.secondPassIterations;
     extras.timing = { operatorMs: op.buildMs, lanczosMs, observablesMs };
 
     const result: Result = {

@@ -33,6 +33,8 @@ export interface LowestEigenpairsResult extends LanczosResult {
   recovered: number;
   /** Thick-restart runs needed because Lanczos without reorthogonalization fell short. */
   fallbacks: number;
+  /** H·x spent recomputing Lanczos vectors that did not fit in `vectorStoreBytes` (included in `iterations`). */
+  secondPassIterations: number;
 }
 
 export function lowestEigenpairs(
@@ -45,6 +47,7 @@ export function lowestEigenpairs(
   const verifyTolerance = options.verifyTolerance ?? Math.max(opts.tolerance, 1e-5);
   if (!(verifyTolerance > 0 && verifyTolerance < 1)) throw new RangeError(`verifyTolerance must be in (0, 1), got ${verifyTolerance}`);
   let fallbacks = 0;
+  let secondPassIterations = 0;
   /** Plain Lanczos, then thick restart from its lowest vector if it did not converge. */
   const solve = (o: LanczosOptions, wantVectors = true): LanczosResult => {
     const first: PlainLanczosResult = plainLanczos(matvec, dimension, {
@@ -52,6 +55,7 @@ export function lowestEigenpairs(
       vectorStoreBytes: options.vectorStoreBytes,
       wantVectors,
     });
+    secondPassIterations += first.secondPassIterations;
     if (first.converged || !wantVectors) return first;
     fallbacks++;
     const rest = lanczos(matvec, dimension, {
@@ -66,7 +70,7 @@ export function lowestEigenpairs(
   let verificationIterations = 0;
   let recovered = 0;
   if (!verify || k + (options.locked?.length ?? 0) >= dimension) {
-    return { ...main, verificationIterations, recovered, fallbacks };
+    return { ...main, verificationIterations, recovered, fallbacks, secondPassIterations };
   }
   let values = [...main.values];
   let vectors = [...main.vectors];
@@ -119,5 +123,6 @@ export function lowestEigenpairs(
     verificationIterations,
     recovered,
     fallbacks,
+    secondPassIterations,
   };
 }
