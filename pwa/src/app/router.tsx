@@ -22,6 +22,7 @@ export const routes: RouteObject[] = [
       { path: 'projects/device', lazy: () => import('./routes/workspace.js') },
       { path: 'projects/:id', lazy: () => import('./routes/project-home.js') },
       { path: 'projects/:id/members', lazy: () => import('./routes/members.js') },
+      { path: 'projects/:projectId/maps/:mapId/review', lazy: () => import('./routes/review-page.js') },
       { path: 'sign-in', lazy: () => import('./routes/sign-in.js') },
       { path: 'register', lazy: () => import('./routes/register.js') },
       { path: 'invitations/accept', lazy: () => import('./routes/invitation-accept.js') },

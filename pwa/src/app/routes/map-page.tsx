@@ -41,6 +41,11 @@ export function Component() {
           <Link className="text-accent-700 underline underline-offset-2" to={`/compare?a=${id}`}>
             Compare with…
           </Link>
+          {project ? (
+            <Link className="text-accent-700 underline underline-offset-2" to={`/projects/${project.id}/maps/${id}/review`} data-testid="map-review-link">
+              Review
+            </Link>
+          ) : null}
           {map.sweepId ? (
             <Link className="text-accent-700 underline underline-offset-2" to={`/sweeps/${map.sweepId}`}>
               The sweep and its run

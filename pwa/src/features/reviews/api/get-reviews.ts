@@ -1,0 +1,86 @@
+import { queryOptions, useQuery } from '@tanstack/react-query';
+import { apiCall } from '../../../lib/auth.js';
+
+export interface ServerSpotCheckPoint {
+  key: string;
+  parameters: Record<string, number>;
+  storedEnergy: number;
+  freshEnergy?: number;
+  absEnergyDifference?: number;
+  relEnergyDifference?: number;
+  storedLabel?: string;
+  freshLabel?: string;
+  labelsAgree?: boolean;
+  converged?: boolean;
+  wallMs?: number;
+  failed?: string;
+}
+
+export interface ServerSpotCheckReport {
+  id: string;
+  mapId: string;
+  reviewId: string | null;
+  sample: number;
+  seed: number;
+  tolerance: number;
+  points: ServerSpotCheckPoint[];
+  maxAbsEnergyDifference: number;
+  maxRelEnergyDifference: number;
+  labelsAgree: number;
+  labelsCompared: number;
+  failed: number;
+  pass: boolean;
+  timing: { totalMs: number; pointsMs: number; workers: number };
+  runtime: Record<string, unknown>;
+  requestedBy: string | null;
+  createdAt: string;
+}
+
+export interface ReviewCommentDto {
+  id: string;
+  authorId: string | null;
+  authorName: string | null;
+  pointKey: string | null;
+  body: string;
+  createdAt: string;
+}
+
+export type ReviewStatus = 'requested' | 'approved' | 'changes-requested';
+
+export interface ReviewDto {
+  id: string;
+  mapId: string;
+  requestedBy: string | null;
+  reviewerId: string | null;
+  message: string;
+  status: ReviewStatus;
+  verdictNote: string | null;
+  verdictAt: string | null;
+  mapIdentity: string | null;
+  pointsDigest: string | null;
+  pointCount: number | null;
+  outdated: boolean;
+  comments: ReviewCommentDto[];
+  spotChecks: ServerSpotCheckReport[];
+  mailSent?: boolean;
+  createdAt: string;
+}
+
+export const reviewKeys = {
+  map: (projectId: string, mapId: string) => ['projects', projectId, 'maps', mapId, 'reviews'] as const,
+};
+
+export const mapPath = (projectId: string, mapId: string) => `/api/projects/${encodeURIComponent(projectId)}/maps/${encodeURIComponent(mapId)}`;
+export const reviewPath = (projectId: string, reviewId: string) => `/api/projects/${encodeURIComponent(projectId)}/reviews/${encodeURIComponent(reviewId)}`;
+
+/** GET /api/projects/:projectId/maps/:mapId/reviews (any member). */
+export function getReviews(projectId: string, mapId: string, { signal }: { signal?: AbortSignal } = {}): Promise<ReviewDto[]> {
+  return apiCall<ReviewDto[]>(`${mapPath(projectId, mapId)}/reviews`, { signal });
+}
+
+export const reviewsQueryOptions = (projectId: string, mapId: string) =>
+  queryOptions({ queryKey: reviewKeys.map(projectId, mapId), queryFn: ({ signal }) => getReviews(projectId, mapId, { signal }), retry: false });
+
+export function useReviews(projectId: string, mapId: string) {
+  return useQuery(reviewsQueryOptions(projectId, mapId));
+}
