@@ -41,4 +41,44 @@ describe('canonicalJson', () => {
       }),
     );
   });
+
+  // A plain reference writer (the definition in the module comment, without any shortcut), to check
+  // that the fast paths (JSON.stringify on a key-sorted copy, the string builder) write the same text.
+  const reference = (x: unknown): string => {
+    if (x === null) return 'null';
+    if (typeof x === 'number') return Object.is(x, -0) ? '0' : String(x);
+    if (typeof x === 'string' || typeof x === 'boolean') return JSON.stringify(x);
+    if (ArrayBuffer.isView(x) && !(x instanceof DataView)) return `[${Array.from(x as unknown as ArrayLike<number>, reference).join(',')}]`;
+    if (Array.isArray(x)) return `[${x.map(reference).join(',')}]`;
+    const r = x as Record<string, unknown>;
+    return `{${Object.keys(r).filter((k) => r[k] !== undefined).sort().map((k) => `${JSON.stringify(k)}:${reference(r[k])}`).join(',')}}`;
+  };
+
+  it('writes the same text as a plain reference writer on awkward shapes', () => {
+    let deep: unknown = 1;
+    for (let i = 0; i < 300; i++) deep = i % 2 ? [deep] : { [`k${i}`]: deep, a: -0 };
+    const cases: unknown[] = [
+      { 10: 'a', 2: 'b', x: 1, $: 2, '': 3 }, // array-index keys enumerate out of code-unit order
+      { b: { 10: 1, 9: 2 }, a: 1 },
+      { a: new Float32Array([0.1, -0]), b: [new Int8Array([1, -2])] },
+      { when: new Date(0), m: new Map([[1, 2]]) }, // no own enumerable keys: {} (toJSON is not used)
+      { z: undefined, y: [{ x: undefined, w: 1 }] },
+      deep,
+      { toJSON: 'not a function', b: 1 },
+    ];
+    for (const c of cases) expect(canonicalJson(c)).toBe(reference(c));
+    fc.assert(
+      fc.property(fc.object({ values: [fc.double({ noNaN: true, noDefaultInfinity: true }), fc.string(), fc.boolean(), fc.constant(null)], withTypedArray: true, withNullPrototype: true }), (value) => {
+        expect(canonicalJson(value)).toBe(reference(value));
+      }),
+    );
+  });
+
+  it('refuses cycles and bigints with the JSON path', () => {
+    const a: Record<string, unknown> = { b: [1] };
+    (a.b as unknown[]).push({ back: a });
+    expect(() => canonicalJson(a)).toThrow('$.b[1].back: circular reference');
+    expect(() => canonicalJson({ big: new BigInt64Array([1n]) })).toThrow('$.big[0]: a bigint cannot be written as JSON');
+    expect(() => canonicalJson({ f: () => 1 })).toThrow('$.f: a function cannot be written as JSON');
+  });
 });

@@ -88,8 +88,108 @@ function write(value: unknown, path: string, out: string[], seen: Set<object>): 
   seen.delete(object);
 }
 
+/** Deeper than this, `prepare` hands over to `write` (which also detects cycles). */
+const FAST_DEPTH = 200;
+
+/** Returned by `prepare` when JSON.stringify cannot be used for a value. */
+const NOT_READY: unique symbol = Symbol('not-ready');
+/** Array-index keys: objects enumerate them first in numeric order, whatever their insertion order. */
+const INDEX_KEY = /^(?:0|[1-9][0-9]*)$/;
+
+/**
+ * A value whose `JSON.stringify` is the canonical text of `value`: `value` itself where it already
+ * is one, else a copy with object keys inserted in canonical order and typed arrays turned into
+ * arrays. Such a value holds only plain objects (with no function or symbol members), plain arrays
+ * without `undefined` or holes, strings, booleans, null and finite numbers (JSON.stringify writes
+ * −0 as 0 and other numbers in the same shortest round-trip form as String). Anything else
+ * (refused values, cycles, very deep values, objects with array-index keys out of order, class
+ * instances) gives NOT_READY, and `write` takes over: JSON paths are built only on that path.
+ */
+function prepare(value: unknown, depth: number): unknown {
+  switch (typeof value) {
+    case 'string':
+    case 'boolean':
+      return value;
+    case 'number':
+      return value - value === 0 ? value : NOT_READY; // NaN and ±Infinity are not
+    case 'object':
+      break;
+    default:
+      return NOT_READY;
+  }
+  if (value === null) return value;
+  if (depth > FAST_DEPTH) return NOT_READY;
+  const proto: unknown = Object.getPrototypeOf(value);
+  if (proto === Array.prototype) {
+    const array = value as unknown[];
+    if ((array as { toJSON?: unknown }).toJSON !== undefined) return NOT_READY;
+    let copy: unknown[] | undefined;
+    for (let i = 0; i < array.length; i++) {
+      const item = array[i];
+      if (item === undefined) return NOT_READY;
+      const ok = prepare(item, depth + 1);
+      if (ok === NOT_READY) return NOT_READY;
+      if (ok !== item && copy === undefined) copy = array.slice(0, i);
+      if (copy !== undefined) copy.push(ok);
+    }
+    return copy ?? array;
+  }
+  if (ArrayBuffer.isView(value) && !(value instanceof DataView)) {
+    const view = value as unknown as ArrayLike<number | bigint>;
+    const copy: number[] = new Array<number>(view.length);
+    for (let i = 0; i < view.length; i++) {
+      const item = view[i];
+      if (typeof item !== 'number' || item - item !== 0) return NOT_READY;
+      copy[i] = item;
+    }
+    return copy;
+  }
+  if (proto !== Object.prototype && proto !== null) return NOT_READY;
+  const record = value as Record<string, unknown>;
+  const keys = Object.keys(record);
+  let sorted = true;
+  for (let i = 1; i < keys.length; i++) {
+    if (!(keys[i - 1] < keys[i])) {
+      sorted = false;
+      break;
+    }
+  }
+  if (sorted) {
+    let copy: Record<string, unknown> | undefined;
+    for (let i = 0; i < keys.length; i++) {
+      const item = record[keys[i]];
+      if (item === undefined) continue;
+      const ok = prepare(item, depth + 1);
+      if (ok === NOT_READY) return NOT_READY;
+      if (ok !== item && copy === undefined) {
+        copy = {};
+        for (let j = 0; j < i; j++) if (record[keys[j]] !== undefined) copy[keys[j]] = record[keys[j]];
+      }
+      if (copy !== undefined) copy[keys[i]] = ok;
+    }
+    return copy ?? record;
+  }
+  keys.sort();
+  const copy: Record<string, unknown> = {};
+  for (let i = 0; i < keys.length; i++) {
+    const key = keys[i];
+    const c = key.charCodeAt(0);
+    if (c >= 48 && c <= 57 && INDEX_KEY.test(key)) return NOT_READY;
+    const item = record[key];
+    if (item === undefined) continue;
+    const ok = prepare(item, depth + 1);
+    if (ok === NOT_READY) return NOT_READY;
+    copy[key] = ok;
+  }
+  return copy;
+}
+
 /** The canonical JSON text of `value`; throws CanonicalJsonError (with a JSON path) on values JSON cannot hold. */
 export function canonicalJson(value: unknown): string {
+  const protoToJson = (Object.prototype as { toJSON?: unknown }).toJSON !== undefined || (Array.prototype as { toJSON?: unknown }).toJSON !== undefined;
+  const prepared = protoToJson ? NOT_READY : prepare(value, 0);
+  if (prepared !== NOT_READY) return JSON.stringify(prepared);
+  // The path-tracking writer: for values refused (it throws with the JSON path) or unusual.
   const out: string[] = [];
   write(value, '$', out, new Set());
   return out.join('');
