@@ -128,6 +128,15 @@ export async function apiCall<T = unknown>(path: string, options: RequestOptions
   }
 }
 
+/** A valid access token for a call `fetch` makes itself (file downloads, multipart uploads); refreshes when needed. */
+export async function accessToken(path: string): Promise<string> {
+  const session = await currentSession();
+  if (!session) throw new SignInRequired(path, 'not signed in');
+  const current = access && access.userId === session.user.id && access.expiresAt > Date.now() ? access : await refreshAccess();
+  if (!current) throw new SignInRequired(path, 'the sign-in has ended');
+  return current.token;
+}
+
 /** Signs out on this device (and on the server when reachable); local data stays. */
 export async function signOut(): Promise<void> {
   const session = await currentSession();

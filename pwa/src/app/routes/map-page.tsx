@@ -6,6 +6,7 @@ import { useStoredProject } from '../../features/projects/api/get-projects.js';
 import { LOCAL_PROJECT_ID, LOCAL_PROJECT_NAME } from '../../lib/db.js';
 import { pointsDigest } from '../../lib/sync-engine.js';
 import { MapView } from '../../features/maps/components/map-view.js';
+import { ExportPanel } from '../../features/maps/components/export-panel.js';
 import { solveDetail } from './sweep-run.js';
 
 /** /maps/:id */
@@ -53,6 +54,7 @@ export function Component() {
           ) : null}
         </div>
       </div>
+      {rows ? <ExportPanel map={map} rows={rows} projectId={project ? project.id : undefined} /> : null}
       <MapView mapId={id} solveDetail={solveDetail} canAnnotate={!project || project.myRole === 'owner' || project.myRole === 'editor'} />
     </div>
   );
