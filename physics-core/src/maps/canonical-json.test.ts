@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest';
 import fc from 'fast-check';
-import { CanonicalJsonError, canonicalJson } from './canonical-json.js';
+import { CanonicalJsonError, canonicalJson, canonicallyEqual } from './canonical-json.js';
 
 describe('canonicalJson', () => {
   it('sorts keys at every depth and drops undefined members', () => {
@@ -65,6 +65,8 @@ describe('canonicalJson', () => {
       { z: undefined, y: [{ x: undefined, w: 1 }] },
       deep,
       { toJSON: 'not a function', b: 1 },
+      JSON.parse('{"b":[1],"__proto__":{"x":1},"a":0}') as unknown,
+      Object.assign(JSON.parse('{"__proto__":0}') as object, { '': new Int32Array(0) }),
     ];
     for (const c of cases) expect(canonicalJson(c)).toBe(reference(c));
     fc.assert(
@@ -80,5 +82,19 @@ describe('canonicalJson', () => {
     expect(() => canonicalJson(a)).toThrow('$.b[1].back: circular reference');
     expect(() => canonicalJson({ big: new BigInt64Array([1n]) })).toThrow('$.big[0]: a bigint cannot be written as JSON');
     expect(() => canonicalJson({ f: () => 1 })).toThrow('$.f: a function cannot be written as JSON');
+  });
+
+  it('canonicallyEqual holds only for values of equal canonical text (property)', () => {
+    fc.assert(
+      fc.property(fc.jsonValue(), fc.jsonValue(), (a, b) => {
+        const copy = JSON.parse(JSON.stringify(a)) as unknown;
+        expect(canonicallyEqual(a, copy)).toBe(true);
+        if (canonicallyEqual(a, b)) expect(canonicalJson(a)).toBe(canonicalJson(b));
+        else expect(canonicalJson(a) === canonicalJson(b) && JSON.stringify(a) === JSON.stringify(b)).toBe(false);
+      }),
+    );
+    expect(canonicallyEqual({ a: -0, u: undefined }, { a: 0 })).toBe(true);
+    expect(canonicallyEqual({ a: [1, 2] }, { a: [2, 1] })).toBe(false);
+    expect(canonicallyEqual({ a: NaN }, { a: NaN })).toBe(false);
   });
 });

@@ -162,6 +162,7 @@ function prepare(value: unknown, depth: number): unknown {
       const ok = prepare(item, depth + 1);
       if (ok === NOT_READY) return NOT_READY;
       if (ok !== item && copy === undefined) {
+        if (keys.includes('__proto__')) return NOT_READY; // an own "__proto__" member cannot be copied by assignment
         copy = {};
         for (let j = 0; j < i; j++) if (record[keys[j]] !== undefined) copy[keys[j]] = record[keys[j]];
       }
@@ -174,7 +175,7 @@ function prepare(value: unknown, depth: number): unknown {
   for (let i = 0; i < keys.length; i++) {
     const key = keys[i];
     const c = key.charCodeAt(0);
-    if (c >= 48 && c <= 57 && INDEX_KEY.test(key)) return NOT_READY;
+    if ((c >= 48 && c <= 57 && INDEX_KEY.test(key)) || key === '__proto__') return NOT_READY;
     const item = record[key];
     if (item === undefined) continue;
     const ok = prepare(item, depth + 1);
@@ -193,4 +194,52 @@ export function canonicalJson(value: unknown): string {
   const out: string[] = [];
   write(value, '$', out, new Set());
   return out.join('');
+}
+
+/**
+ * True only when `a` and `b` certainly have the same canonical JSON (plain objects, arrays,
+ * strings, booleans, null and finite numbers, compared member by member; −0 equals 0, undefined
+ * members count as absent). False when they differ or when unsure: a cheap test that allocates
+ * nothing but key lists, for callers that would otherwise compare canonical texts.
+ */
+export function canonicallyEqual(a: unknown, b: unknown, depth = 0): boolean {
+  switch (typeof a) {
+    case 'string':
+    case 'boolean':
+      return a === b;
+    case 'number':
+      return a === b && a - a === 0;
+    case 'object':
+      if (a === null) return b === null;
+      return typeof b === 'object' && b !== null && plainEqual(a, b, depth);
+    default:
+      return false;
+  }
+}
+
+function plainEqual(a: object, b: object, depth: number): boolean {
+  if (depth > FAST_DEPTH) return false;
+  const pa: unknown = Object.getPrototypeOf(a);
+  const pb: unknown = Object.getPrototypeOf(b);
+  if (pa === Array.prototype || pb === Array.prototype) {
+    if (pa !== pb) return false;
+    const x = a as unknown[];
+    const y = b as unknown[];
+    if (x.length !== y.length) return false;
+    for (let i = 0; i < x.length; i++) {
+      if (x[i] === undefined || y[i] === undefined || !canonicallyEqual(x[i], y[i], depth + 1)) return false;
+    }
+    return true;
+  }
+  if ((pa !== Object.prototype && pa !== null) || (pb !== Object.prototype && pb !== null)) return false;
+  const x = a as Record<string, unknown>;
+  const y = b as Record<string, unknown>;
+  let n = 0;
+  for (const key of Object.keys(x)) {
+    if (x[key] === undefined) continue;
+    n++;
+    if (!Object.prototype.hasOwnProperty.call(y, key) || !canonicallyEqual(x[key], y[key], depth + 1)) return false;
+  }
+  for (const key of Object.keys(y)) if (y[key] !== undefined) n--;
+  return n === 0;
 }

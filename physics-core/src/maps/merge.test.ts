@@ -116,4 +116,18 @@ describe('merge rules', () => {
     expect(() => mergeMaps([a, b])).toThrow(MergeError);
     expect(() => mergeMaps([a, b])).toThrow(/maps of different identities cannot be merged/);
   });
+
+  it('equal summaries: the canonically least full point is primary, whatever the order', () => {
+    const a = singleton('ed', r(-1, 1));
+    const b = structuredClone(a);
+    b.points['V=1'].observables = { ...b.points['V=1'].observables, gap: 0.25 };
+    const c = structuredClone(a);
+    c.points['V=1'].level = 2;
+    const least = [a, b].map((m) => canonicalJson(m.points['V=1'])).sort()[0];
+    for (const order of [[a, b, c], [c, b, a], [b, c, a]]) {
+      const p = mergeMaps(order).points['V=1'];
+      expect(canonicalJson({ ...p, level: 0 })).toBe(least);
+      expect(p.history).toBeUndefined();
+    }
+  });
 });

@@ -13,7 +13,7 @@
  * idempotent (`mergeMaps(a, a)` equals `normaliseMap(a)`; maps written by the engine are normal).
  */
 import { PhasewrightError } from '../errors.js';
-import { canonicalJson } from './canonical-json.js';
+import { canonicalJson, canonicallyEqual } from './canonical-json.js';
 import type { MapPoint, MapSource, PhaseMap, PointSummary } from './map-format.js';
 
 export interface MergeOptions {
@@ -37,10 +37,21 @@ function summaryOf(p: MapPoint): PointSummary {
   return s;
 }
 
+/** A result with its energy; its canonical text is written only when an order or a comparison needs it. */
+interface Entry<T> {
+  energy: number;
+  s: T;
+  text?: string;
+}
+
+const textOf = (e: Entry<unknown>): string => (e.text ??= canonicalJson(e.s));
+
 /** Orders results: lower energy first, then canonical text (a total order on distinct results). */
-function compareResults(a: { energy: number; text: string }, b: { energy: number; text: string }): number {
+function compareResults(a: Entry<unknown>, b: Entry<unknown>): number {
   if (a.energy !== b.energy) return a.energy < b.energy ? -1 : 1;
-  return a.text < b.text ? -1 : a.text > b.text ? 1 : 0;
+  const ta = textOf(a);
+  const tb = textOf(b);
+  return ta < tb ? -1 : ta > tb ? 1 : 0;
 }
 
 /** Agreement of two ED energies within tolerance. */
@@ -50,33 +61,76 @@ export function edEnergiesAgree(a: number, b: number, options: MergeOptions = {}
   return Math.abs(a - b) <= Math.max(abs, rel * Math.max(Math.abs(a), Math.abs(b)));
 }
 
+/** A point without what merging replaces (its level, disputes and history). */
+function kept(p: MapPoint): Omit<MapPoint, 'level' | 'disputed' | 'history'> {
+  const { level: _l, disputed: _d, history: _h, ...rest } = p;
+  return rest;
+}
+
+/**
+ * The primary among the inputs' primaries: least by (energy, canonical summary, canonical full
+ * point). Canonical texts are written only for candidates tied so far; when the tied candidates
+ * agree in everything the merged point keeps, any of them gives the same merged point.
+ */
+function primary(candidates: Entry<PointSummary>[], points: MapPoint[]): number {
+  let best = 0;
+  let tied = [0];
+  for (let i = 1; i < candidates.length; i++) {
+    const order = compareResults(candidates[i], candidates[best]);
+    if (order < 0) {
+      best = i;
+      tied = [i];
+    } else if (order === 0) tied.push(i);
+  }
+  if (tied.length === 1) return best;
+  const first = kept(points[tied[0]]);
+  if (tied.every((i) => canonicallyEqual(kept(points[i]), first))) return tied[0];
+  const full = tied.map((i) => ({ i, text: canonicalJson(points[i]) }));
+  full.sort((a, b) => (a.text < b.text ? -1 : a.text > b.text ? 1 : 0));
+  return full[0].i;
+}
+
 /** Merges results of one point (same key); `method` decides the rule. */
 export function mergePoints(points: MapPoint[], method: 'ed' | 'meanfield', options: MergeOptions = {}): MapPoint {
   if (points.length === 0) throw new MergeError('nothing to merge');
-  // The primary: the best full result among the inputs' primaries.
-  const candidates = points.map((p) => ({ point: p, energy: p.energy, text: canonicalJson(summaryOf(p)), full: canonicalJson(p) }));
-  candidates.sort((a, b) => compareResults(a, b) || (a.full < b.full ? -1 : a.full > b.full ? 1 : 0));
-  const best = candidates[0].point;
-  const bestText = candidates[0].text;
-  // Every other result ever seen, once.
-  const others = new Map<string, PointSummary>();
-  for (const p of points) {
-    for (const s of [summaryOf(p), ...(p.disputed ?? []), ...(p.history ?? [])]) {
-      const text = canonicalJson(s);
-      if (text !== bestText) others.set(text, s);
+  const candidates: Entry<PointSummary>[] = points.map((p) => ({ energy: p.energy, s: summaryOf(p) }));
+  const top = candidates[primary(candidates, points)];
+  const best = points[candidates.indexOf(top)];
+  // Every other result ever seen, once: results are equal when their canonical texts are, which
+  // needs equal energies, so texts are written only within groups of equal energy.
+  const byEnergy = new Map<number, Entry<PointSummary>[]>();
+  for (let k = 0; k < points.length; k++) {
+    const p = points[k];
+    for (const e of [candidates[k], ...(p.disputed ?? []).map((s) => ({ energy: s.energy, s })), ...(p.history ?? []).map((s) => ({ energy: s.energy, s }))]) {
+      const group = byEnergy.get(e.energy);
+      if (group) group.push(e);
+      else byEnergy.set(e.energy, [e]);
     }
   }
-  const disputed: { energy: number; text: string; s: PointSummary }[] = [];
-  const history: { energy: number; text: string; s: PointSummary }[] = [];
-  for (const [text, s] of others) {
-    const entry = { energy: s.energy, text, s };
-    if (method === 'ed' && !edEnergiesAgree(s.energy, best.energy, options)) disputed.push(entry);
-    else history.push(entry);
+  const disputed: Entry<PointSummary>[] = [];
+  const history: Entry<PointSummary>[] = [];
+  for (const [energy, group] of byEnergy) {
+    let unique = group;
+    if (group.length > 1 || energy === top.energy) {
+      const byText = new Map<string, Entry<PointSummary>>();
+      for (const e of group) {
+        const text = textOf(e);
+        const seen = byText.get(text);
+        // The first of equal results keeps its place, the last one's object is kept.
+        if (seen) seen.s = e.s;
+        else byText.set(text, { energy: e.energy, s: e.s, text });
+      }
+      if (energy === top.energy) byText.delete(textOf(top));
+      unique = [...byText.values()];
+    }
+    for (const e of unique) {
+      if (method === 'ed' && !edEnergiesAgree(e.energy, best.energy, options)) disputed.push(e);
+      else history.push(e);
+    }
   }
   disputed.sort(compareResults);
   history.sort(compareResults);
-  const { disputed: _d, history: _h, ...rest } = best;
-  const out: MapPoint = { ...rest, level: Math.min(...points.map((p) => p.level)) };
+  const out: MapPoint = { ...kept(best), level: Math.min(...points.map((p) => p.level)) };
   if (disputed.length > 0) out.disputed = disputed.map((e) => e.s);
   if (history.length > 0) out.history = history.map((e) => e.s);
   return out;
