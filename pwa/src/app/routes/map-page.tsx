@@ -1,5 +1,5 @@
 import type { MapPoint } from '@phasewright/physics-core';
-import { useMemo } from 'react';
+import { useMemo, useState } from 'react';
 import { Link, useParams } from 'react-router-dom';
 import { useMapPoints, useMapRecord } from '../../features/maps/api/maps.js';
 import { useStoredProject } from '../../features/projects/api/get-projects.js';
@@ -7,6 +7,8 @@ import { LOCAL_PROJECT_ID, LOCAL_PROJECT_NAME } from '../../lib/db.js';
 import { pointsDigest } from '../../lib/sync-engine.js';
 import { MapView } from '../../features/maps/components/map-view.js';
 import { ExportPanel } from '../../features/maps/components/export-panel.js';
+import type { MeasurementRow } from '../../features/maps/lib/measurements.js';
+import { MeasurementsPanel } from '../../features/uploads/components/measurements-panel.js';
 import { solveDetail } from './sweep-run.js';
 
 /** /maps/:id */
@@ -15,6 +17,7 @@ export function Component() {
   const map = useMapRecord(id);
   const rows = useMapPoints(id);
   const project = useStoredProject(map && map.projectId !== LOCAL_PROJECT_ID ? map.projectId : undefined);
+  const [measured, setMeasured] = useState<MeasurementRow[]>();
   // The digest the server keeps for a map's point set; equal digests on two devices mean equal points.
   const digest = useMemo(() => {
     if (!rows) return undefined;
@@ -55,7 +58,8 @@ export function Component() {
         </div>
       </div>
       {rows ? <ExportPanel map={map} rows={rows} projectId={project ? project.id : undefined} /> : null}
-      <MapView mapId={id} solveDetail={solveDetail} canAnnotate={!project || project.myRole === 'owner' || project.myRole === 'editor'} />
+      {project ? <MeasurementsPanel projectId={project.id} mapId={id} canUpload={project.myRole === 'owner' || project.myRole === 'editor'} onRows={setMeasured} /> : null}
+      <MapView measured={measured} mapId={id} solveDetail={solveDetail} canAnnotate={!project || project.myRole === 'owner' || project.myRole === 'editor'} />
     </div>
   );
 }

@@ -6,6 +6,7 @@ import { scaleLinear, scaleLog } from '@visx/scale';
 import { LinePath } from '@visx/shape';
 import { forwardRef } from 'react';
 import { axisInfo, scalar, type MapCell } from '../lib/map-data.js';
+import { measuredOnCut, type MeasurementRow } from '../lib/measurements.js';
 
 interface Props {
   sweep: SweepSpec;
@@ -15,12 +16,14 @@ interface Props {
   onSelect: (cell: MapCell) => void;
   colorOf: (cell: MapCell) => string;
   width?: number;
+  /** Uploaded measurements to draw over the cut (points with error bars). */
+  measured?: MeasurementRow[];
 }
 
 const M = { top: 28, right: 16, bottom: 44, left: 84 };
 const INK = '#1d2640';
 
-export const CutPlot = forwardRef<SVGSVGElement, Props>(function CutPlot({ sweep, cells, observable, selectedKeys, onSelect, colorOf, width = 620 }, ref) {
+export const CutPlot = forwardRef<SVGSVGElement, Props>(function CutPlot({ sweep, cells, observable, selectedKeys, onSelect, colorOf, width = 620, measured = [] }, ref) {
   const a = axisInfo(sweep)[0];
   const height = 260;
   const iw = width - M.left - M.right;
@@ -33,13 +36,14 @@ export const CutPlot = forwardRef<SVGSVGElement, Props>(function CutPlot({ sweep
     .map((c) => ({ c, xv: c.at[0], yv: scalar(c.point, observable) }))
     .filter((p): p is { c: MapCell; xv: number; yv: number } => p.yv !== undefined)
     .sort((p, q) => p.xv - q.xv);
-  const ys = pts.map((p) => p.yv);
+  const meas = measuredOnCut(measured, a.parameter, observable, axis2 && row !== undefined ? { parameter: axis2, value: row } : undefined);
+  const ys = [...pts.map((p) => p.yv), ...meas.flatMap((m) => [m.y - (m.err ?? 0), m.y + (m.err ?? 0)])];
   const lo = ys.length ? Math.min(...ys) : 0;
   const hi = ys.length ? Math.max(...ys) : 1;
   const pad = (hi - lo || Math.abs(hi) || 1) * 0.08;
   const x = a.log ? scaleLog<number>({ domain: [a.min, a.max], range: [0, iw] }) : scaleLinear<number>({ domain: [a.min, a.max === a.min ? a.min + 1 : a.max], range: [0, iw] });
   const y = scaleLinear<number>({ domain: [lo - pad, hi + pad], range: [ih, 0], nice: true });
-  const title = `${observable} along ${a.parameter}${row !== undefined ? ` (${axis2} = ${row})` : ''}`;
+  const title = `${observable} along ${a.parameter}${row !== undefined ? ` (${axis2} = ${row})` : ''}${meas.length ? ` · ${meas.length} measured` : ''}`;
   return (
     <svg ref={ref} viewBox={`0 0 ${width} ${height}`} width="100%" role="img" aria-label={title} data-testid="cut-plot" className="block">
       <title>{title}</title>
@@ -48,6 +52,26 @@ export const CutPlot = forwardRef<SVGSVGElement, Props>(function CutPlot({ sweep
       </text>
       <Group left={M.left} top={M.top}>
         <LinePath data={pts} x={(p) => x(p.xv) ?? 0} y={(p) => y(p.yv) ?? 0} stroke={INK} strokeWidth={1.5} />
+        <g data-testid="cut-measured" data-count={meas.length}>
+          {meas.map((m) => {
+            const cx = x(m.x) ?? 0;
+            const cy = y(m.y) ?? 0;
+            return (
+              <g key={`${m.line}`} stroke="#b3261e" strokeWidth={1.4}>
+                {m.err !== undefined ? (
+                  <>
+                    <line x1={cx} x2={cx} y1={y(m.y - m.err) ?? cy} y2={y(m.y + m.err) ?? cy} />
+                    <line x1={cx - 4} x2={cx + 4} y1={y(m.y - m.err) ?? cy} y2={y(m.y - m.err) ?? cy} />
+                    <line x1={cx - 4} x2={cx + 4} y1={y(m.y + m.err) ?? cy} y2={y(m.y + m.err) ?? cy} />
+                  </>
+                ) : null}
+                <rect x={cx - 3.5} y={cy - 3.5} width={7} height={7} fill="#fffcf6">
+                  <title>{`measured (line ${m.line}): ${observable} = ${m.y}${m.err !== undefined ? ` ± ${m.err}` : ''} at ${a.parameter} = ${m.x}`}</title>
+                </rect>
+              </g>
+            );
+          })}
+        </g>
         {pts.map((p) => (
           <circle
             key={p.c.key}

@@ -13,6 +13,7 @@ import { annotateLabel, useAnnotations, useMapPoints, useMapRecord } from '../ap
 import { exportPng, exportSvg } from '../lib/export-figure.js';
 import { boundariesOf, caveatsOf, labelsOf, mapCells, scalar, scalarObservables, type MapCell } from '../lib/map-data.js';
 import { CutPlot } from './cut-plot.js';
+import type { MeasurementRow } from '../lib/measurements.js';
 import { MapLegend, type LegendEntry } from './map-legend.js';
 import { PhaseMapPlot, type PlotColouring } from './phase-map-plot.js';
 import { PointDetail } from './point-detail.js';
@@ -29,7 +30,7 @@ function sequential(t: number): string {
 }
 
 /** `canAnnotate` false (viewers and reviewers of a shared project) hides renaming and recolouring. */
-export function MapView({ mapId, solveDetail, canAnnotate = true }: { mapId: string; solveDetail: DetailSolver; canAnnotate?: boolean }) {
+export function MapView({ mapId, solveDetail, canAnnotate = true, measured }: { mapId: string; solveDetail: DetailSolver; canAnnotate?: boolean; measured?: MeasurementRow[] }) {
   const map = useMapRecord(mapId);
   const rows = useMapPoints(mapId);
   const annotations = useAnnotations(mapId);
@@ -211,7 +212,7 @@ export function MapView({ mapId, solveDetail, canAnnotate = true }: { mapId: str
               </Button>
             </span>
           </div>
-          <CutPlot ref={cutSvg} sweep={sweep} cells={cells} observable={cutObs} selectedKeys={selected} onSelect={(c) => selectCell(c)} colorOf={colouring.colorOf} />
+          <CutPlot ref={cutSvg} sweep={sweep} cells={cells} observable={cutObs} selectedKeys={selected} onSelect={(c) => selectCell(c)} colorOf={colouring.colorOf} measured={measured} />
         </section>
       ) : null}
 
