@@ -2,7 +2,7 @@ import { describe, expect, it } from 'vitest';
 import { SpecError } from '../errors.js';
 import { chainSweep, fakeSolve } from '../sweep/fake-solver.js';
 import { InProcessExecutor, runSweep } from '../sweep/run.js';
-import { parseMap, parseMapText, serializeMap } from './map-format.js';
+import { parseMap, parseMapText, serializeMap, type PhaseMap } from './map-format.js';
 
 const runtime = { kind: 'node' as const, version: 'v20', cores: 1 };
 
@@ -39,5 +39,22 @@ describe('map format v1', () => {
       ]));
     }
     expect(() => parseMapText('{"spec": ')).toThrow(/not valid JSON \(/);
+  });
+
+  it('returns a copy (parseMap) and names parameter, list and provenance paths', async () => {
+    const { map } = await runSweep(chainSweep(), { executor: new InProcessExecutor(fakeSolve), runtime });
+    const json = JSON.parse(serializeMap(map)) as PhaseMap;
+    const back = parseMap(json);
+    expect(back).toEqual(map);
+    back.points['V=1'].observables.gap = -1;
+    expect(json.points['V=1'].observables.gap).toEqual(map.points['V=1'].observables.gap);
+    const bad = JSON.parse(serializeMap(map));
+    bad.points['V=1'].parameters.V = null;
+    bad.points['V=2'].history = {};
+    bad.points['V=2'].computed.runtime.cores = 0;
+    bad.provenance.sources = [{ createdAt: 1, runtime: { kind: 'node', version: 'v20', cores: 1 } }];
+    expect(() => parseMap(bad)).toThrow(
+      '$.points["V=1"].parameters.V: must be a finite number; $.points["V=2"].computed.runtime.cores: must be an integer ≥ 1; $.points["V=2"].history: must be an array; $.provenance.sources[0].createdAt: must be an ISO time',
+    );
   });
 });

@@ -96,50 +96,51 @@ const isRecord = (x: unknown): x is Record<string, unknown> =>
   typeof x === 'object' && x !== null && !Array.isArray(x);
 const isNum = (x: unknown): x is number => typeof x === 'number' && Number.isFinite(x);
 
-function need(cond: boolean, issues: Issues, path: string, message: string): boolean {
-  if (!cond) issues.push({ path, message });
+/** Records an issue at `path` + `suffix` unless `cond` (the path text is built only for an issue). */
+function need(cond: boolean, issues: Issues, path: string, suffix: string, message: string): boolean {
+  if (!cond) issues.push({ path: path + suffix, message });
   return cond;
 }
 
 function checkRuntime(x: unknown, path: string, issues: Issues): void {
-  if (!need(isRecord(x), issues, path, 'must be {kind, version, cores}')) return;
+  if (!need(isRecord(x), issues, path, '', 'must be {kind, version, cores}')) return;
   const r = x as Record<string, unknown>;
-  need(r.kind === 'node' || r.kind === 'browser', issues, `${path}.kind`, 'must be "node" or "browser"');
-  need(typeof r.version === 'string', issues, `${path}.version`, 'must be a string');
-  need(Number.isInteger(r.cores) && (r.cores as number) >= 1, issues, `${path}.cores`, 'must be an integer ≥ 1');
+  need(r.kind === 'node' || r.kind === 'browser', issues, path, '.kind', 'must be "node" or "browser"');
+  need(typeof r.version === 'string', issues, path, '.version', 'must be a string');
+  need(Number.isInteger(r.cores) && (r.cores as number) >= 1, issues, path, '.cores', 'must be an integer ≥ 1');
 }
 
 function checkSummary(x: unknown, path: string, issues: Issues, full: boolean): void {
-  if (!need(isRecord(x), issues, path, 'must be an object')) return;
+  if (!need(isRecord(x), issues, path, '', 'must be an object')) return;
   const p = x as Record<string, unknown>;
-  need(isNum(p.energy), issues, `${path}.energy`, 'must be a finite number');
-  need(isNum(p.wallMs) && (p.wallMs as number) >= 0, issues, `${path}.wallMs`, 'must be a number ≥ 0');
-  need(Number.isInteger(p.seed), issues, `${path}.seed`, 'must be an integer');
-  if (need(isRecord(p.convergence), issues, `${path}.convergence`, 'must be {converged, iterations, residual}')) {
+  need(isNum(p.energy), issues, path, '.energy', 'must be a finite number');
+  need(isNum(p.wallMs) && (p.wallMs as number) >= 0, issues, path, '.wallMs', 'must be a number ≥ 0');
+  need(Number.isInteger(p.seed), issues, path, '.seed', 'must be an integer');
+  if (need(isRecord(p.convergence), issues, path, '.convergence', 'must be {converged, iterations, residual}')) {
     const c = p.convergence as Record<string, unknown>;
-    need(typeof c.converged === 'boolean', issues, `${path}.convergence.converged`, 'must be true or false');
-    need(isNum(c.iterations), issues, `${path}.convergence.iterations`, 'must be a number');
-    need(isNum(c.residual), issues, `${path}.convergence.residual`, 'must be a finite number');
+    need(typeof c.converged === 'boolean', issues, path, '.convergence.converged', 'must be true or false');
+    need(isNum(c.iterations), issues, path, '.convergence.iterations', 'must be a number');
+    need(isNum(c.residual), issues, path, '.convergence.residual', 'must be a finite number');
   }
-  if (p.label !== undefined && need(isRecord(p.label), issues, `${path}.label`, 'must be {id, confidence, evidence}')) {
+  if (p.label !== undefined && need(isRecord(p.label), issues, path, '.label', 'must be {id, confidence, evidence}')) {
     const l = p.label as Record<string, unknown>;
-    need(typeof l.id === 'string', issues, `${path}.label.id`, 'must be a string');
-    need(isNum(l.confidence), issues, `${path}.label.confidence`, 'must be a number');
-    need(isRecord(l.evidence), issues, `${path}.label.evidence`, 'must be an object');
+    need(typeof l.id === 'string', issues, path, '.label.id', 'must be a string');
+    need(isNum(l.confidence), issues, path, '.label.confidence', 'must be a number');
+    need(isRecord(l.evidence), issues, path, '.label.evidence', 'must be an object');
   }
-  if (need(isRecord(p.computed), issues, `${path}.computed`, 'must be {at, runtime}')) {
+  if (need(isRecord(p.computed), issues, path, '.computed', 'must be {at, runtime}')) {
     const c = p.computed as Record<string, unknown>;
-    need(typeof c.at === 'string', issues, `${path}.computed.at`, 'must be an ISO time');
+    need(typeof c.at === 'string', issues, path, '.computed.at', 'must be an ISO time');
     checkRuntime(c.runtime, `${path}.computed.runtime`, issues);
   }
   if (p.warnings !== undefined) {
-    need(Array.isArray(p.warnings) && p.warnings.every((w) => typeof w === 'string'), issues, `${path}.warnings`, 'must be an array of strings');
+    need(Array.isArray(p.warnings) && p.warnings.every((w) => typeof w === 'string'), issues, path, '.warnings', 'must be an array of strings');
   }
-  if (full && need(isRecord(p.observables), issues, `${path}.observables`, 'must be an object')) {
+  if (full && need(isRecord(p.observables), issues, path, '.observables', 'must be an object')) {
     for (const [name, v] of Object.entries(p.observables as Record<string, unknown>)) {
       const ok = isNum(v) ||
         (Array.isArray(v) && v.every((e) => isNum(e) || (Array.isArray(e) && e.every(isNum))));
-      need(ok, issues, `${path}.observables.${name}`, 'must be a finite number, a list of numbers or a table of numbers');
+      if (!ok) need(ok, issues, path, `.observables.${name}`, 'must be a finite number, a list of numbers or a table of numbers');
     }
   }
 }
@@ -149,6 +150,38 @@ function checkSummary(x: unknown, path: string, issues: Issues, full: boolean): 
  * format version is refused with a message saying so.
  */
 export function parseMap(json: unknown): PhaseMap {
+  const sweep = validateMap(json);
+  const map = cloneJson(json) as PhaseMap;
+  map.sweep = sweep;
+  return map;
+}
+
+/**
+ * A deep copy of a JSON value (what structuredClone gives for plain data, without its cost); a
+ * part that is not plain JSON data (a Date, a typed array, an own "__proto__" member, …) is copied
+ * by structuredClone.
+ */
+function cloneJson(x: unknown): unknown {
+  if (typeof x !== 'object' || x === null) return x;
+  const proto: unknown = Object.getPrototypeOf(x);
+  if (proto === Array.prototype) {
+    const a = x as unknown[];
+    const out: unknown[] = new Array<unknown>(a.length);
+    for (let i = 0; i < a.length; i++) {
+      if (!(i in a)) return structuredClone(x);
+      out[i] = cloneJson(a[i]);
+    }
+    return out;
+  }
+  if (proto !== Object.prototype || Object.prototype.hasOwnProperty.call(x, '__proto__')) return structuredClone(x);
+  const r = x as Record<string, unknown>;
+  const out: Record<string, unknown> = {};
+  for (const key of Object.keys(r)) out[key] = cloneJson(r[key]);
+  return out;
+}
+
+/** Checks a parsed JSON value as a map v1 (throws SpecError with JSON paths) and returns its parsed sweep. */
+function validateMap(json: unknown): SweepSpec {
   if (!isRecord(json)) throw new SpecError([{ path: '$', message: 'a map must be a JSON object' }]);
   if (json.spec !== MAP_SPEC_ID) {
     const m = typeof json.spec === 'string' ? /^phasewright\.map\/(\d+)$/.exec(json.spec) : null;
@@ -161,7 +194,7 @@ export function parseMap(json: unknown): PhaseMap {
   for (const key of Object.keys(json)) {
     if (!['spec', 'id', 'sweep', 'points', 'provenance'].includes(key)) issues.push({ path: `$.${key}`, message: `unknown field "${key}"` });
   }
-  need(typeof json.id === 'string' && /^[0-9a-f]{64}$/.test(json.id), issues, '$.id', 'must be a SHA-256 in hex');
+  need(typeof json.id === 'string' && /^[0-9a-f]{64}$/.test(json.id), issues, '$.id', '', 'must be a SHA-256 in hex');
   let sweep: SweepSpec | undefined;
   try {
     sweep = parseSweepSpec(json.sweep);
@@ -169,46 +202,44 @@ export function parseMap(json: unknown): PhaseMap {
     if (!(error instanceof SpecError)) throw error;
     for (const i of error.issues) issues.push({ path: i.path.replace(/^\$/, '$.sweep'), message: i.message });
   }
-  if (need(isRecord(json.points), issues, '$.points', 'must be an object keyed by point key')) {
+  if (need(isRecord(json.points), issues, '$.points', '', 'must be an object keyed by point key')) {
     for (const [key, raw] of Object.entries(json.points as Record<string, unknown>)) {
       const path = `$.points[${JSON.stringify(key)}]`;
       checkSummary(raw, path, issues, true);
       if (!isRecord(raw)) continue;
-      if (need(isRecord(raw.parameters), issues, `${path}.parameters`, 'must be an object of numbers')) {
-        for (const [n, v] of Object.entries(raw.parameters as Record<string, unknown>)) need(isNum(v), issues, `${path}.parameters.${n}`, 'must be a finite number');
+      if (need(isRecord(raw.parameters), issues, path, '.parameters', 'must be an object of numbers')) {
+        for (const [n, v] of Object.entries(raw.parameters as Record<string, unknown>)) if (!isNum(v)) need(false, issues, path, `.parameters.${n}`, 'must be a finite number');
       }
-      need(Number.isInteger(raw.level) && (raw.level as number) >= 0, issues, `${path}.level`, 'must be an integer ≥ 0');
+      need(Number.isInteger(raw.level) && (raw.level as number) >= 0, issues, path, '.level', 'must be an integer ≥ 0');
       for (const list of ['disputed', 'history'] as const) {
         if (raw[list] === undefined) continue;
-        if (need(Array.isArray(raw[list]), issues, `${path}.${list}`, 'must be an array')) {
+        if (need(Array.isArray(raw[list]), issues, path, `.${list}`, 'must be an array')) {
           (raw[list] as unknown[]).forEach((s, i) => checkSummary(s, `${path}.${list}[${i}]`, issues, false));
         }
       }
     }
   }
   const prov = json.provenance;
-  if (need(isRecord(prov), issues, '$.provenance', 'must be an object')) {
+  if (need(isRecord(prov), issues, '$.provenance', '', 'must be an object')) {
     const p = prov as Record<string, unknown>;
-    need(typeof p.createdAt === 'string', issues, '$.provenance.createdAt', 'must be an ISO time');
-    need(p.finishedAt === undefined || typeof p.finishedAt === 'string', issues, '$.provenance.finishedAt', 'must be an ISO time');
-    need(p.author === undefined || typeof p.author === 'string', issues, '$.provenance.author', 'must be a string');
+    need(typeof p.createdAt === 'string', issues, '$.provenance.createdAt', '', 'must be an ISO time');
+    need(p.finishedAt === undefined || typeof p.finishedAt === 'string', issues, '$.provenance.finishedAt', '', 'must be an ISO time');
+    need(p.author === undefined || typeof p.author === 'string', issues, '$.provenance.author', '', 'must be a string');
     checkRuntime(p.runtime, '$.provenance.runtime', issues);
-    need(Array.isArray(p.seeds) && p.seeds.every((s) => Number.isInteger(s)), issues, '$.provenance.seeds', 'must be an array of integers');
-    need(typeof p.coreVersion === 'string', issues, '$.provenance.coreVersion', 'must be a string');
-    need(Array.isArray(p.warnings) && p.warnings.every((w) => typeof w === 'string'), issues, '$.provenance.warnings', 'must be an array of strings');
-    if (need(Array.isArray(p.sources) && p.sources.length > 0, issues, '$.provenance.sources', 'must be a non-empty array')) {
+    need(Array.isArray(p.seeds) && p.seeds.every((s) => Number.isInteger(s)), issues, '$.provenance.seeds', '', 'must be an array of integers');
+    need(typeof p.coreVersion === 'string', issues, '$.provenance.coreVersion', '', 'must be a string');
+    need(Array.isArray(p.warnings) && p.warnings.every((w) => typeof w === 'string'), issues, '$.provenance.warnings', '', 'must be an array of strings');
+    if (need(Array.isArray(p.sources) && p.sources.length > 0, issues, '$.provenance.sources', '', 'must be a non-empty array')) {
       (p.sources as unknown[]).forEach((s, i) => {
         const path = `$.provenance.sources[${i}]`;
-        if (!need(isRecord(s), issues, path, 'must be {createdAt, runtime, …}')) return;
-        need(typeof (s as Record<string, unknown>).createdAt === 'string', issues, `${path}.createdAt`, 'must be an ISO time');
+        if (!need(isRecord(s), issues, path, '', 'must be {createdAt, runtime, …}')) return;
+        need(typeof (s as Record<string, unknown>).createdAt === 'string', issues, path, '.createdAt', 'must be an ISO time');
         checkRuntime((s as Record<string, unknown>).runtime, `${path}.runtime`, issues);
       });
     }
   }
   if (issues.length > 0) throw new SpecError(issues);
-  const map = structuredClone(json) as unknown as PhaseMap;
-  map.sweep = sweep as SweepSpec;
-  return map;
+  return sweep as SweepSpec;
 }
 
 /** Parses map text (JSON); a syntax error is reported as a SpecError at `$`. */
@@ -219,7 +250,10 @@ export function parseMapText(text: string): PhaseMap {
   } catch (error) {
     throw new SpecError([{ path: '$', message: `not valid JSON (${(error as Error).message})` }]);
   }
-  return parseMap(json);
+  // A value fresh from JSON.parse is nobody else's: no copy needed.
+  const map = json as PhaseMap;
+  map.sweep = validateMap(json);
+  return map;
 }
 
 /** The map as canonical JSON text (sorted keys, shortest round-trip numbers) with a final newline. */
