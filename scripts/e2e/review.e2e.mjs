@@ -1,0 +1,117 @@
+// The review journey in the browser, against the real server and MariaDB, with the seeded demo
+// accounts (db/seeders/0001-demo-accounts.mjs: no registrations, so no registration rate limit):
+//   the editor runs a small ED cut in the demo project, the map syncs, the editor requests a review
+//   from the project's reviewer on the review page; the reviewer (second browser context) opens the
+//   project (the map is pulled), opens the review page, runs the spot-check in her own browser and
+//   approves; the editor sees the approval.
+// Every step a person does happens in the page.
+import assert from 'node:assert/strict';
+import { randomBytes } from 'node:crypto';
+import { launchFreshContext } from './browser.mjs';
+
+const run = randomBytes(3).toString('hex');
+const DEMO_PROJECT = 'Demo: kagome strip survey';
+const EDITOR = { email: 'otto.vane@example.org', password: 'editor-pebble-4821', displayName: 'Otto Vane' };
+const REVIEWER = { email: 'lena.quartz@example.org', password: 'review-thistle-4821', displayName: 'Lena Quartz' };
+
+/** @param {import('playwright-core').Page} page */
+async function signIn(page, baseUrl, who) {
+  await page.goto(`${baseUrl}/sign-in`);
+  await page.locator('[data-path="email"]').fill(who.email);
+  await page.locator('[data-path="password"]').fill(who.password);
+  await page.getByRole('button', { name: 'Sign in' }).click();
+  await page.getByTestId('signed-in-user').filter({ hasText: who.displayName }).waitFor();
+}
+
+async function syncPhase(page, phase, timeout = 20_000) {
+  await page.locator(`[data-testid="sync-badge"][data-phase="${phase}"]`).waitFor({ timeout });
+}
+
+/** @param {import('playwright-core').Page} page */
+async function openDemoProject(page, baseUrl) {
+  await page.goto(`${baseUrl}/projects`);
+  await page.getByRole('link', { name: DEMO_PROJECT }).first().click();
+  await page.getByRole('heading', { level: 1, name: DEMO_PROJECT }).waitFor();
+  return page.url().match(/\/projects\/([0-9a-f-]{36})/)?.[1];
+}
+
+export const tests = [
+  {
+    name: 'review journey: editor requests a review, the reviewer spot-checks in her browser and approves, the editor sees the approval',
+    async run({ baseUrl, page, screenshot }) {
+      await signIn(page, baseUrl, EDITOR);
+      const projectId = await openDemoProject(page, baseUrl);
+      assert.ok(projectId, 'the demo project has an id in its address');
+      await syncPhase(page, 'up-to-date');
+
+      // A small ED cut in the demo project.
+      await page.getByRole('link', { name: 'New model' }).last().click();
+      await page.getByTestId('model-project').filter({ hasText: DEMO_PROJECT }).waitFor();
+      await page.getByText('The model is valid.').waitFor();
+      await page.locator('[data-path="$.name"]').fill(`review chain ${run}`);
+      await page.getByRole('button', { name: 'Save model' }).click();
+      await page.waitForURL(/\/models\/[0-9a-f-]{36}$/);
+      await page.getByRole('button', { name: 'Sweep this model →' }).click();
+      await page.getByRole('form', { name: 'Sweep' }).waitFor();
+      await page.locator('[data-path="$.name"]').fill(`review cut ${run}`);
+      await page.selectOption('[data-path="$.axes[0].parameter"]', 'V');
+      await page.locator('[data-path="$.axes[0].from"]').fill('0');
+      await page.locator('[data-path="$.axes[0].to"]').fill('3');
+      await page.locator('[data-path="$.axes[0].points"]').fill('5');
+      await page.getByText('5 coarse points').waitFor();
+      await page.getByRole('button', { name: 'Create sweep and start' }).click();
+      await page.waitForURL(/\/sweeps\//);
+      await page.locator('[data-run-state="done"]').waitFor({ timeout: 30_000 });
+      await page.getByRole('link', { name: 'Open the map' }).click();
+      await page.waitForURL(/\/maps\//);
+      await syncPhase(page, 'up-to-date', 40_000);
+      await page.getByTestId('map-exports').waitFor();
+      await screenshot('review-1-editor-map');
+
+      // The editor asks the reviewer.
+      await page.getByTestId('map-review-link').click();
+      await page.waitForURL(/\/review$/);
+      const reviewUrl = page.url();
+      await page.getByTestId('provenance').waitFor();
+      const option = page.getByTestId('review-reviewer').locator('option', { hasText: REVIEWER.displayName });
+      await page.getByTestId('review-reviewer').selectOption(await option.getAttribute('value'));
+      await page.getByTestId('review-message').fill('Please check the density-wave side of the cut.');
+      await page.getByTestId('review-request-submit').click();
+      await page.locator('[data-testid="review"][data-status="requested"]').waitFor();
+      await screenshot('review-2-requested');
+
+      // The reviewer, in her own browser: the map is pulled with the project, then the review page.
+      const other = await launchFreshContext();
+      try {
+        const rpage = other.context.pages()[0] ?? (await other.context.newPage());
+        await signIn(rpage, baseUrl, REVIEWER);
+        await openDemoProject(rpage, baseUrl);
+        await rpage.getByRole('list', { name: 'Items' }).getByRole('link', { name: `review cut ${run}` }).last().waitFor({ timeout: 30_000 });
+        await rpage.goto(reviewUrl);
+        await rpage.getByTestId('provenance').waitFor();
+        await rpage.getByTestId('spot-check-sample').fill('3');
+        const t0 = Date.now();
+        await rpage.getByTestId('spot-check-run').click();
+        const report = rpage.getByTestId('spot-check-report-browser');
+        await report.waitFor({ timeout: 60_000 });
+        const spotMs = Date.now() - t0;
+        assert.equal(await report.getAttribute('data-pass'), 'true', 'the in-browser spot-check passes');
+        await screenshot('review-3-spot-check', rpage);
+        await rpage.getByTestId('verdict-approved').check();
+        await rpage.getByTestId('verdict-note').fill(`Spot-check of 3 points reproduced the energies and labels (${(spotMs / 1000).toFixed(1)} s).`);
+        await rpage.getByTestId('verdict-submit').click();
+        await rpage.locator('[data-testid="review"][data-status="approved"]').waitFor();
+        await screenshot('review-4-approved', rpage);
+        console.log(`     review journey: in-browser spot-check of 3 points took ${(spotMs / 1000).toFixed(1)} s`);
+      } finally {
+        await other.close();
+      }
+
+      // The editor sees the approval.
+      await page.reload();
+      await page.locator('[data-testid="review"][data-status="approved"][data-outdated="false"]').waitFor({ timeout: 15_000 });
+      await page.getByTestId('review-verdict').filter({ hasText: 'approved' }).waitFor();
+      await screenshot('review-5-editor-sees-approval');
+    },
+  },
+];
