@@ -49,6 +49,7 @@ const textOf = (e: Entry<unknown>): string => (e.text ??= canonicalJson(e.s));
 /** Orders results: lower energy first, then canonical text (a total order on distinct results). */
 function compareResults(a: Entry<unknown>, b: Entry<unknown>): number {
   if (a.energy !== b.energy) return a.energy < b.energy ? -1 : 1;
+  if (canonicallyEqual(a.s, b.s)) return 0;
   const ta = textOf(a);
   const tb = textOf(b);
   return ta < tb ? -1 : ta > tb ? 1 : 0;
@@ -111,7 +112,12 @@ export function mergePoints(points: MapPoint[], method: 'ed' | 'meanfield', opti
   const history: Entry<PointSummary>[] = [];
   for (const [energy, group] of byEnergy) {
     let unique = group;
-    if (group.length > 1 || energy === top.energy) {
+    const same = group.every((e) => canonicallyEqual(e.s, group[0].s));
+    if (same && energy === top.energy && canonicallyEqual(group[0].s, top.s)) {
+      unique = []; // all equal to the primary
+    } else if (same && energy !== top.energy) {
+      unique = [{ energy, s: group[group.length - 1].s }]; // equal results: one, the last one's object
+    } else if (group.length > 1 || energy === top.energy) {
       const byText = new Map<string, Entry<PointSummary>>();
       for (const e of group) {
         const text = textOf(e);
