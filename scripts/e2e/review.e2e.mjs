@@ -66,6 +66,24 @@ export const tests = [
       await page.waitForURL(/\/maps\//);
       await syncPhase(page, 'up-to-date', 40_000);
       await page.getByTestId('map-exports').waitFor();
+
+      // Exports: the points CSV comes from the server with one line per point.
+      const [csvDownload] = await Promise.all([page.waitForEvent('download'), page.getByTestId('export-csv').click()]);
+      assert.match(csvDownload.suggestedFilename(), /-points\.csv$/);
+      const csvPath = await csvDownload.path();
+      const { readFile } = await import('node:fs/promises');
+      assert.equal((await readFile(csvPath, 'utf8')).trim().split(/\r?\n/).length, 6, 'header and 5 points');
+
+      // Measured data: a CSV with a bad number is refused with its line; a good one is drawn on the cut.
+      await page.getByTestId('measurements-file').setInputFiles({ name: 'bad.csv', mimeType: 'text/csv', buffer: Buffer.from('V,energyPerSite,energyPerSite_err\n0,-0.65,0.01\n1,abc,0.01\n') });
+      await page.getByTestId('measurements-upload').click();
+      await page.getByTestId('measurements-error').filter({ hasText: 'line 3' }).waitFor();
+      await screenshot('review-0-upload-error');
+      await page.getByTestId('measurements-file').setInputFiles({ name: 'measured.csv', mimeType: 'text/csv', buffer: Buffer.from('V,energyPerSite,energyPerSite_err\n0,-0.64,0.02\n1.5,-0.45,0.015\n3,-0.34,0.01\n') });
+      await page.getByTestId('measurements-upload').click();
+      await page.getByTestId('measurements-summary').filter({ hasText: '3 rows' }).waitFor();
+      await page.getByLabel('Cut observable').selectOption('energyPerSite');
+      await page.locator('[data-testid="cut-measured"][data-count="3"]').waitFor();
       await screenshot('review-1-editor-map');
 
       // The editor asks the reviewer.
