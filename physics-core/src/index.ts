@@ -62,3 +62,5 @@ export { bandPath, blochHamiltonian, highSymmetryPoints, type BlochModel, type B
 export { chernNumbers, type ChernOptions, type ChernResult, type BandGroup } from './bands/chern.js';
 export { hermitianEigen } from './bands/hermitian-eigen.js';
 export { classifyPoint, checkClassifyOptions, type ClassifyOptions, type Classification, type PhaseId } from './classify/phases.js';
+export { pointsCsv, csvField, exportFileStem, type PointsCsvOptions } from './maps/points-csv.js';
+export { samplePointKeys, spotCheckJobs } from './maps/spot-check.js';

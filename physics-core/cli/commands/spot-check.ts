@@ -7,10 +7,9 @@
 import type { Command } from 'commander';
 import { PhasewrightError } from '../../src/errors.js';
 import { CORE_VERSION } from '../../src/version.js';
+import { samplePointKeys, spotCheckJobs } from '../../src/maps/spot-check.js';
 import type { MapPoint, PhaseMap } from '../../src/maps/map-format.js';
 import { parseMap } from '../../src/maps/map-format.js';
-import type { SegmentJob } from '../../src/sweep/run.js';
-import { mulberry32 } from '../../src/util/random.js';
 import { inFile, nodeRuntime, readJsonFile } from '../io.js';
 import { NodeExecutor } from '../node-executor.js';
 import { solverOverride } from './sweep.js';
@@ -29,30 +28,11 @@ export interface SpotCheckReport {
 
 /** K keys of the map, drawn without replacement by a seeded shuffle of the sorted keys. */
 export function samplePoints(map: PhaseMap, k: number, seed: number): string[] {
-  const keys = Object.keys(map.points).sort();
-  const random = mulberry32(seed);
-  for (let i = keys.length - 1; i > 0; i--) {
-    const j = Math.floor(random() * (i + 1));
-    [keys[i], keys[j]] = [keys[j], keys[i]];
-  }
-  return keys.slice(0, Math.min(k, keys.length)).sort();
+  return samplePointKeys(Object.keys(map.points), k, seed);
 }
 
 export async function spotCheck(map: PhaseMap, keys: string[], tolerance: number, workers?: number): Promise<SpotCheckReport> {
-  const context = {
-    model: map.sweep.model,
-    axes: map.sweep.axes.map((a) => a.parameter),
-    method: map.sweep.method,
-    solver: map.sweep.solver ?? {},
-    seed: map.sweep.seed ?? 0,
-    runtime: nodeRuntime(),
-    ...(map.sweep.observables ? { observables: map.sweep.observables } : {}),
-  };
-  // One point per segment: every re-run starts cold, independent of the original path.
-  const jobs: SegmentJob[] = keys.map((key) => ({
-    context,
-    items: [{ key, parameters: map.points[key].parameters, coords: [], level: map.points[key].level }],
-  }));
+  const jobs = spotCheckJobs(map.sweep, map.points, keys, nodeRuntime());
   const fresh = new Map<string, MapPoint>();
   const failed: string[] = [];
   const executor = new NodeExecutor({ ...(workers ? { workers } : {}), ...solverOverride() });

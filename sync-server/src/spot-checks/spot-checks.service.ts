@@ -1,6 +1,6 @@
 import { BadRequestException, HttpException, HttpStatus, Inject, Injectable, NotFoundException } from '@nestjs/common';
 import { InjectConnection } from '@nestjs/sequelize';
-import { CORE_VERSION, type MapPoint, mulberry32, type SegmentJob, type SweepSpec } from '@phasewright/physics-core';
+import { CORE_VERSION, type MapPoint, samplePointKeys, spotCheckJobs, type SweepSpec } from '@phasewright/physics-core';
 import { randomUUID } from 'node:crypto';
 import os from 'node:os';
 import { QueryTypes } from 'sequelize';
@@ -13,16 +13,6 @@ import type { RunSpotCheckDto, SpotCheckPointDto, SpotCheckReportDto } from './d
 import { runInWorkers } from './spot-check-runner.js';
 
 /** K keys drawn without replacement by a seeded shuffle of the sorted keys (the CLI's rule). */
-export function samplePointKeys(keys: string[], k: number, seed: number): string[] {
-  const sorted = [...keys].sort();
-  const random = mulberry32(seed);
-  for (let i = sorted.length - 1; i > 0; i--) {
-    const j = Math.floor(random() * (i + 1));
-    [sorted[i], sorted[j]] = [sorted[j], sorted[i]];
-  }
-  return sorted.slice(0, Math.min(k, sorted.length)).sort();
-}
-
 /** Re-runs sampled points of a stored map with physics-core in worker threads and stores the report. */
 @Injectable()
 export class SpotChecksService {
@@ -71,17 +61,7 @@ export class SpotChecksService {
     const keys = samplePointKeys(allKeys, body.sample, seed);
     const stored = await this.maps.points(mapPk, keys);
     const runtime = { kind: 'node' as const, version: process.version, cores: os.availableParallelism() };
-    const context = {
-      model: sweep.model,
-      axes: sweep.axes.map((a) => a.parameter),
-      method: sweep.method,
-      solver: sweep.solver ?? {},
-      seed: sweep.seed ?? 0,
-      runtime,
-      ...(sweep.observables ? { observables: sweep.observables } : {}),
-    };
-    // One point per segment: every re-run starts cold, independent of the original path.
-    const jobs: SegmentJob[] = keys.map((key) => ({ context, items: [{ key, parameters: stored[key].parameters, coords: [], level: stored[key].level }] }));
+    const jobs = spotCheckJobs(sweep, stored, keys, runtime);
     const t0 = performance.now();
     const events = await runInWorkers(jobs, this.config.spotCheck.workers, this.config.spotCheck.timeoutS * 1000);
     const totalMs = performance.now() - t0;

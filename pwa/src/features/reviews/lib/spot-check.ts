@@ -7,7 +7,7 @@
  * relative: a variational method may find a better minimum, never a worse one) and labels the same.
  * A pass shows reproducibility, not correctness.
  */
-import { mulberry32, type Executor, type MapPoint, type PointEvent, type RuntimeInfo, type SegmentJob, type SweepSpec } from '@phasewright/physics-core';
+import { samplePointKeys, spotCheckJobs, type Executor, type MapPoint, type PointEvent, type RuntimeInfo, type SweepSpec } from '@phasewright/physics-core';
 
 export const ED_RELATIVE_TOLERANCE = 1e-8;
 
@@ -38,16 +38,7 @@ export interface BrowserSpotCheckReport {
   wallMs: number;
 }
 
-/** K keys drawn without replacement by a seeded shuffle of the sorted keys (the same rule as the server's). */
-export function samplePointKeys(keys: string[], k: number, seed: number): string[] {
-  const sorted = [...keys].sort();
-  const random = mulberry32(seed);
-  for (let i = sorted.length - 1; i > 0; i--) {
-    const j = Math.floor(random() * (i + 1));
-    [sorted[i], sorted[j]] = [sorted[j], sorted[i]];
-  }
-  return sorted.slice(0, Math.min(Math.max(0, Math.floor(k)), sorted.length)).sort();
-}
+export { samplePointKeys };
 
 /** Compares fresh points with stored ones under the method's rule. */
 export function compareSpotCheck(
@@ -114,22 +105,6 @@ export function compareSpotCheck(
   };
 }
 
-/** The jobs of a spot-check: one cold segment per sampled point. */
-export function spotCheckJobs(sweep: SweepSpec, stored: Record<string, MapPoint>, runtime: RuntimeInfo): SegmentJob[] {
-  const context = {
-    model: sweep.model,
-    axes: sweep.axes.map((a) => a.parameter),
-    method: sweep.method,
-    solver: sweep.solver ?? {},
-    seed: sweep.seed ?? 0,
-    runtime,
-    ...(sweep.observables ? { observables: sweep.observables } : {}),
-  };
-  return Object.keys(stored)
-    .sort()
-    .map((key) => ({ context, items: [{ key, parameters: stored[key].parameters, coords: [], level: stored[key].level }] }));
-}
-
 /** Re-runs the sampled points on `executor` (the page's worker pool) and compares. */
 export async function runSpotCheck(
   executor: Executor,
@@ -145,7 +120,7 @@ export async function runSpotCheck(
   const failures = new Map<string, string>();
   const t0 = performance.now();
   await executor.run(
-    spotCheckJobs(sweep, stored, options.runtime),
+    spotCheckJobs(sweep, stored, keys, options.runtime),
     (e: PointEvent) => {
       if (e.kind === 'point') fresh.set(e.key, e.point);
       else failures.set(e.key, e.message);
