@@ -1,27 +1,11 @@
 import { InProcessExecutor, parseMap, runSweep, solvePoint, type SweepSpec } from '@phasewright/physics-core';
 import { describe, expect, it } from 'vitest';
+import { chainVCut } from '../../../test/chain-sweep.js';
 import type { MapRecord } from '../../../lib/db.js';
 import { localDataPackage, pointsCsv } from './map-export.js';
 
 const runtime = { kind: 'browser' as const, version: 'vitest, "quoted", engine', cores: 1 };
-const sweep: SweepSpec = {
-  spec: 'phasewright.sweep/1',
-  name: 'Chain, V cut',
-  model: {
-    spec: 'phasewright.model/1',
-    lattice: { kind: 'chain', size: [4], boundary: ['open'] },
-    particles: { kind: 'hardcore', filling: 0.5 },
-    parameters: { J: 1, V: 0 },
-    terms: [
-      { kind: 'hop', neighbors: 1, amplitude: '-J' },
-      { kind: 'interaction', neighbors: 1, amplitude: 'V' },
-    ],
-  },
-  axes: [{ parameter: 'V', kind: 'linear', from: 0, to: 2, points: 3 }],
-  method: 'ed',
-  solver: { fidelity: false },
-  seed: 1,
-};
+const sweep: SweepSpec = chainVCut({ name: 'Chain, V cut', sites: 4, to: 2, points: 3, seed: 1 });
 
 /** RFC 4180 reader for the test (quoted fields, doubled quotes). */
 function readCsv(text: string): string[][] {

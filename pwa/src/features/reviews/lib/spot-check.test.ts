@@ -1,28 +1,11 @@
 import { InProcessExecutor, runSweep, solvePoint, type MapPoint, type SweepSpec } from '@phasewright/physics-core';
 import { describe, expect, it } from 'vitest';
+import { chainVCut } from '../../../test/chain-sweep.js';
 import { compareSpotCheck, runSpotCheck, samplePointKeys } from './spot-check.js';
 
 const runtime = { kind: 'browser' as const, version: 'vitest', cores: 1 };
 
-/** Hardcore bosons on an open 6-site chain at half filling, nearest-neighbour repulsion V. */
-const sweep: SweepSpec = {
-  spec: 'phasewright.sweep/1',
-  name: 'chain V cut',
-  model: {
-    spec: 'phasewright.model/1',
-    lattice: { kind: 'chain', size: [6], boundary: ['open'] },
-    particles: { kind: 'hardcore', filling: 0.5 },
-    parameters: { J: 1, V: 0 },
-    terms: [
-      { kind: 'hop', neighbors: 1, amplitude: '-J' },
-      { kind: 'interaction', neighbors: 1, amplitude: 'V' },
-    ],
-  },
-  axes: [{ parameter: 'V', kind: 'linear', from: 0, to: 3, points: 4 }],
-  method: 'ed',
-  solver: { fidelity: false },
-  seed: 3,
-};
+const sweep: SweepSpec = chainVCut({ name: 'chain V cut', sites: 6, to: 3, points: 4, seed: 3 });
 
 describe('samplePointKeys', () => {
   const keys = Array.from({ length: 20 }, (_, i) => `V=${i}`);

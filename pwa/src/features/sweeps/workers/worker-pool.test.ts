@@ -7,29 +7,12 @@ import {
   type SweepSpec,
 } from '@phasewright/physics-core';
 import { describe, expect, it } from 'vitest';
+import { chainVCut } from '../../../test/chain-sweep.js';
 import { WorkerPool, defaultPoolSize, type WorkerHandle } from './worker-pool.js';
 
 const runtime = { kind: 'browser' as const, version: 'vitest', cores: 4 };
 
-/** Hardcore bosons on an open 6-site chain at half filling, with nearest-neighbour repulsion V. */
-const sweep: SweepSpec = {
-  spec: 'phasewright.sweep/1',
-  name: 'chain V cut',
-  model: {
-    spec: 'phasewright.model/1',
-    lattice: { kind: 'chain', size: [6], boundary: ['open'] },
-    particles: { kind: 'hardcore', filling: 0.5 },
-    parameters: { J: 1, V: 0 },
-    terms: [
-      { kind: 'hop', neighbors: 1, amplitude: '-J' },
-      { kind: 'interaction', neighbors: 1, amplitude: 'V' },
-    ],
-  },
-  axes: [{ parameter: 'V', kind: 'linear', from: 0, to: 3, points: 7 }],
-  method: 'ed',
-  solver: { fidelity: false },
-  seed: 3,
-};
+const sweep: SweepSpec = chainVCut({ name: 'chain V cut', sites: 6, to: 3, points: 7, seed: 3 });
 
 /** An in-thread stand-in for a worker: asynchronous like one, and `terminate` stops it mid-segment. */
 function fakeWorkerFactory(log: { started: number; terminated: number; segments: number }) {
