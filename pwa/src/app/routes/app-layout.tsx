@@ -7,6 +7,7 @@ import { useSession } from '../../lib/auth.js';
 import { Badge } from '../../components/ui/badge.js';
 import { Button } from '../../components/ui/button.js';
 import { LogoMark } from '../../components/ui/logo-mark.js';
+import { ThemeToggle } from '../../components/ui/theme-toggle.js';
 import {
   dismissServiceWorkerNotice,
   reloadWithUpdate,
@@ -112,6 +113,7 @@ export function AppShell({ children }: { children: ReactNode }) {
           </nav>
           {online ? null : <Badge tone="warn">Offline</Badge>}
           <SyncBadge />
+          <ThemeToggle />
           <AccountArea />
         </div>
       </header>

@@ -3,7 +3,7 @@ import { Button as HeadlessButton, type ButtonProps as HeadlessButtonProps } fro
 type Variant = 'primary' | 'secondary' | 'ghost';
 
 const variantClasses: Record<Variant, string> = {
-  primary: 'bg-accent-600 text-white data-hover:bg-accent-700',
+  primary: 'bg-accent-600 text-white data-hover:bg-accent-700 dark:data-hover:bg-accent-300',
   secondary: 'bg-surface text-ink-900 ring-1 ring-inset ring-line data-hover:bg-accent-50',
   ghost: 'text-ink-800 data-hover:bg-accent-50',
 };
