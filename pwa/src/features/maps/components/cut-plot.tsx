@@ -7,6 +7,7 @@ import { LinePath } from '@visx/shape';
 import { forwardRef } from 'react';
 import { axisInfo, scalar, type MapCell } from '../lib/map-data.js';
 import { measuredOnCut, type MeasurementRow } from '../lib/measurements.js';
+import { PLOT } from '../lib/plot-colors.js';
 
 interface Props {
   sweep: SweepSpec;
@@ -21,7 +22,7 @@ interface Props {
 }
 
 const M = { top: 28, right: 16, bottom: 44, left: 84 };
-const INK = '#1d2640';
+const INK = PLOT.ink;
 
 export const CutPlot = forwardRef<SVGSVGElement, Props>(function CutPlot({ sweep, cells, observable, selectedKeys, onSelect, colorOf, width = 620, measured = [] }, ref) {
   const a = axisInfo(sweep)[0];
@@ -45,7 +46,7 @@ export const CutPlot = forwardRef<SVGSVGElement, Props>(function CutPlot({ sweep
   const y = scaleLinear<number>({ domain: [lo - pad, hi + pad], range: [ih, 0], nice: true });
   const title = `${observable} along ${a.parameter}${row !== undefined ? ` (${axis2} = ${row})` : ''}${meas.length ? ` · ${meas.length} measured` : ''}`;
   return (
-    <svg ref={ref} viewBox={`0 0 ${width} ${height}`} width="100%" role="img" aria-label={title} data-testid="cut-plot" className="block">
+    <svg ref={ref} viewBox={`0 0 ${width} ${height}`} width="100%" role="img" aria-label={title} data-testid="cut-plot" data-ink-aware="" className="block">
       <title>{title}</title>
       <text x={M.left} y={17} fontSize={13} fontWeight={600} fill={INK}>
         {title}
@@ -57,7 +58,7 @@ export const CutPlot = forwardRef<SVGSVGElement, Props>(function CutPlot({ sweep
             const cx = x(m.x) ?? 0;
             const cy = y(m.y) ?? 0;
             return (
-              <g key={`${m.line}`} stroke="#b3261e" strokeWidth={1.4}>
+              <g key={`${m.line}`} stroke={PLOT.measured} strokeWidth={1.4}>
                 {m.err !== undefined ? (
                   <>
                     <line x1={cx} x2={cx} y1={y(m.y - m.err) ?? cy} y2={y(m.y + m.err) ?? cy} />
@@ -65,7 +66,7 @@ export const CutPlot = forwardRef<SVGSVGElement, Props>(function CutPlot({ sweep
                     <line x1={cx - 4} x2={cx + 4} y1={y(m.y + m.err) ?? cy} y2={y(m.y + m.err) ?? cy} />
                   </>
                 ) : null}
-                <rect x={cx - 3.5} y={cy - 3.5} width={7} height={7} fill="#fffcf6">
+                <rect x={cx - 3.5} y={cy - 3.5} width={7} height={7} fill={PLOT.surface}>
                   <title>{`measured (line ${m.line}): ${observable} = ${m.y}${m.err !== undefined ? ` ± ${m.err}` : ''} at ${a.parameter} = ${m.x}`}</title>
                 </rect>
               </g>
@@ -78,7 +79,7 @@ export const CutPlot = forwardRef<SVGSVGElement, Props>(function CutPlot({ sweep
             cx={x(p.xv) ?? 0}
             cy={y(p.yv) ?? 0}
             r={selectedKeys.has(p.c.key) ? 6 : 4}
-            fill={p.c.point.convergence.converged ? colorOf(p.c) : '#fffcf6'}
+            fill={p.c.point.convergence.converged ? colorOf(p.c) : PLOT.surface}
             stroke={INK}
             strokeWidth={selectedKeys.has(p.c.key) ? 2 : 1}
             onClick={() => onSelect(p.c)}

@@ -18,6 +18,7 @@ import { MapLegend, type LegendEntry } from './map-legend.js';
 import { PhaseMapPlot, type PlotColouring } from './phase-map-plot.js';
 import { PointDetail } from './point-detail.js';
 import { PointsTable } from './points-table.js';
+import { bandsInWorker, type BandsComputer } from '../workers/bands-client.js';
 
 export type DetailSolver = (request: PointRequest) => Promise<{ result: Result }>;
 
@@ -29,8 +30,11 @@ function sequential(t: number): string {
   return `rgb(${c0.map((a, i) => Math.round(a + (c1[i] - a) * u)).join(' ')})`;
 }
 
-/** `canAnnotate` false (viewers and reviewers of a shared project) hides renaming and recolouring. */
-export function MapView({ mapId, solveDetail, canAnnotate = true, measured }: { mapId: string; solveDetail: DetailSolver; canAnnotate?: boolean; measured?: MeasurementRow[] }) {
+/**
+ * `canAnnotate` false (viewers and reviewers of a shared project) hides renaming and recolouring.
+ * `computeBands` draws a selected point's one-particle bands (a worker of its own by default).
+ */
+export function MapView({ mapId, solveDetail, canAnnotate = true, measured, computeBands = bandsInWorker }: { mapId: string; solveDetail: DetailSolver; canAnnotate?: boolean; measured?: MeasurementRow[]; computeBands?: BandsComputer }) {
   const map = useMapRecord(mapId);
   const rows = useMapPoints(mapId);
   const annotations = useAnnotations(mapId);
@@ -216,7 +220,7 @@ export function MapView({ mapId, solveDetail, canAnnotate = true, measured }: { 
         </section>
       ) : null}
 
-      {detail && detailCell ? <PointDetail pointKey={detail.key} point={detailCell.point} result={detail.result} error={detail.error} labelName={detailCell.labelId ? labelName(detailCell.labelId) : undefined} /> : null}
+      {detail && detailCell ? <PointDetail pointKey={detail.key} point={detailCell.point} result={detail.result} error={detail.error} labelName={detailCell.labelId ? labelName(detailCell.labelId) : undefined} bands={{ model: sweep.model, compute: computeBands, fileBase: `${fileBase}-${detail.key.replace(/[^a-z0-9.]+/gi, "-")}` }} /> : null}
 
       {cells.length ? <PointsTable cells={cells} parameters={sweep.axes.map((a) => a.parameter)} labelName={labelName} selectedKeys={selected} onSelect={selectCell} /> : null}
     </div>

@@ -9,6 +9,7 @@ import { Group } from '@visx/group';
 import { scaleLinear, scaleLog } from '@visx/scale';
 import { forwardRef } from 'react';
 import { axisInfo, scalar, type MapCell } from '../lib/map-data.js';
+import { PLOT } from '../lib/plot-colors.js';
 
 export interface PlotColouring {
   mode: 'label' | 'observable';
@@ -31,7 +32,7 @@ interface Props {
 }
 
 const M = { top: 30, right: 16, bottom: 44, left: 58 };
-const INK = '#1d2640';
+const INK = PLOT.ink;
 
 export const PhaseMapPlot = forwardRef<SVGSVGElement, Props>(function PhaseMapPlot(
   { sweep, cells, colouring, boundaries, selectedKeys, onHover, onSelect, title, width = 620, overlayBoundaries = [] },
@@ -58,13 +59,13 @@ export const PhaseMapPlot = forwardRef<SVGSVGElement, Props>(function PhaseMapPl
   };
 
   return (
-    <svg ref={ref} viewBox={`0 0 ${width} ${height}`} width="100%" role="img" aria-label={title} data-testid="phase-map" className="block">
+    <svg ref={ref} viewBox={`0 0 ${width} ${height}`} width="100%" role="img" aria-label={title} data-testid="phase-map" data-ink-aware="" className="block">
       <title>{title}</title>
       <text x={M.left} y={18} fontSize={13} fontWeight={600} fill={INK}>
         {title}
       </text>
       <Group left={M.left} top={M.top}>
-        <rect width={iw} height={ih} fill="#f5f1e8" />
+        <rect width={iw} height={ih} fill={PLOT.paper} />
         {cells.map((c) => {
           const [x0, w] = span(x, axes[0], c.at[0], c.half[0]);
           const [y0, h] = y ? span(y, axes[1], c.at[1], c.half[1]) : [0, ih];
@@ -77,7 +78,7 @@ export const PhaseMapPlot = forwardRef<SVGSVGElement, Props>(function PhaseMapPl
                 width={Math.max(1, w)}
                 height={Math.max(1, h)}
                 fill={colouring.colorOf(c)}
-                stroke={selected ? INK : '#fffcf6'}
+                stroke={selected ? INK : PLOT.surface}
                 strokeWidth={selected ? 2 : 0.5}
                 onMouseMove={(e) => onHover(c, e.clientX, e.clientY)}
                 onMouseLeave={() => onHover(null, 0, 0)}
@@ -101,9 +102,9 @@ export const PhaseMapPlot = forwardRef<SVGSVGElement, Props>(function PhaseMapPl
           return (
             <g key={`o${i}`} data-overlay-boundary={b.between.join('|')} pointerEvents="none">
               {twoD ? (
-                <polyline points={pts.map((p) => `${p.px},${p.py}`).join(' ')} fill="none" stroke="#b3541e" strokeWidth={2.2} strokeDasharray="6 4" strokeLinejoin="round" />
+                <polyline points={pts.map((p) => `${p.px},${p.py}`).join(' ')} fill="none" stroke={PLOT.accent} strokeWidth={2.2} strokeDasharray="6 4" strokeLinejoin="round" />
               ) : (
-                pts.map((p, j) => <line key={j} x1={p.px} x2={p.px} y1={-4} y2={ih + 4} stroke="#b3541e" strokeWidth={2.2} strokeDasharray="6 4" />)
+                pts.map((p, j) => <line key={j} x1={p.px} x2={p.px} y1={-4} y2={ih + 4} stroke={PLOT.accent} strokeWidth={2.2} strokeDasharray="6 4" />)
               )}
             </g>
           );

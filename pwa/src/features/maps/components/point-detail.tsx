@@ -2,10 +2,15 @@
  * One point in full: the cluster with densities as site fill, bond currents as arrows whose
  * width is the magnitude, plaquette flux as fill colour, S(q) as a small heatmap, and the point's
  * convergence and warnings. The full result is recomputed in a worker (maps keep scalars only).
+ * Below, with the point's model and a bands computer, the one-particle bands of the same model at
+ * the same parameters (bands-panel.tsx).
  */
-import type { MapPoint, Result } from '@phasewright/physics-core';
+import type { MapPoint, ModelSpec, Result } from '@phasewright/physics-core';
+import { PLOT } from '../lib/plot-colors.js';
+import type { BandsComputer } from '../workers/bands-client.js';
+import { BandsPanel } from './bands-panel.js';
 
-const INK = '#1d2640';
+const INK = PLOT.ink;
 
 interface Props {
   pointKey: string;
@@ -13,6 +18,8 @@ interface Props {
   result: Result | undefined;
   error: string | undefined;
   labelName: string | undefined;
+  /** The point's model and the way to compute its one-particle bands; no bands panel without them. */
+  bands?: { model: ModelSpec; compute: BandsComputer; fileBase?: string };
 }
 
 function fluxColor(flux: number): string {
@@ -41,7 +48,7 @@ export function ClusterResult({ result, width = 520, height = 240 }: { result: R
   const maxI = Math.max(1e-300, ...result.bonds.map((b) => Math.abs(b.current)));
   const r = Math.max(5, Math.min(12, scale * 0.18));
   return (
-    <svg viewBox={`0 0 ${width} ${height}`} width="100%" role="img" aria-label="Cluster: densities, currents and fluxes" data-testid="point-cluster" className="block rounded-lg bg-surface ring-1 ring-line">
+    <svg viewBox={`0 0 ${width} ${height}`} width="100%" role="img" aria-label="Cluster: densities, currents and fluxes" data-testid="point-cluster" data-ink-aware="" className="block rounded-lg bg-surface ring-1 ring-line">
       {result.plaquettes.map((p, i) => {
         if (p.sites.some((s) => dist({ from: s, to: p.sites[0] }) > 2.5 * shortest)) return null;
         return <polygon key={`p${i}`} points={p.sites.map((s) => `${P(s).x},${P(s).y}`).join(' ')} fill={fluxColor(p.flux)} stroke="none"><title>{`flux ${p.flux.toFixed(3)} rad, circulation ${p.circulation.toPrecision(3)}`}</title></polygon>;
@@ -64,8 +71,8 @@ export function ClusterResult({ result, width = 520, height = 240 }: { result: R
         const hs = 4 + 3 * m;
         return (
           <g key={`c${i}`}>
-            <line x1={s.x + ux * r} y1={s.y + uy * r} x2={t.x - ux * r} y2={t.y - uy * r} stroke="#b3541e" strokeWidth={w} strokeOpacity={0.85} />
-            <path d={`M${mx},${my} L${mx - ux * hs * 2 - uy * hs},${my - uy * hs * 2 + ux * hs} L${mx - ux * hs * 2 + uy * hs},${my - uy * hs * 2 - ux * hs} Z`} fill="#b3541e" />
+            <line x1={s.x + ux * r} y1={s.y + uy * r} x2={t.x - ux * r} y2={t.y - uy * r} stroke={PLOT.accent} strokeWidth={w} strokeOpacity={0.85} />
+            <path d={`M${mx},${my} L${mx - ux * hs * 2 - uy * hs},${my - uy * hs * 2 + ux * hs} L${mx - ux * hs * 2 + uy * hs},${my - uy * hs * 2 - ux * hs} Z`} fill={PLOT.accent} />
             <title>{`current ${b.from}→${b.to}: ${b.current.toPrecision(3)}`}</title>
           </g>
         );
@@ -73,7 +80,7 @@ export function ClusterResult({ result, width = 520, height = 240 }: { result: R
       {sites.map((s, i) => {
         const p = P(i);
         return (
-          <circle key={`s${i}`} cx={p.x} cy={p.y} r={r} fill={`rgb(29 38 64 / ${Math.max(0, Math.min(1, s.density)).toFixed(3)})`} stroke={INK} strokeWidth={1.2}>
+          <circle key={`s${i}`} cx={p.x} cy={p.y} r={r} fill={INK} fillOpacity={Math.max(0, Math.min(1, s.density)).toFixed(3)} stroke={INK} strokeWidth={1.2}>
             <title>{`site ${s.index}: n = ${s.density.toFixed(4)}`}</title>
           </circle>
         );
@@ -91,12 +98,12 @@ function StructureFactorGrid({ rows }: { rows: { q: [number, number]; value: num
   const w = qx.length * cell;
   const h = qy.length * cell;
   return (
-    <svg viewBox={`0 0 ${w + 2} ${h + 2}`} width={Math.min(240, w + 2)} role="img" aria-label="Structure factor S(q)" data-testid="structure-factor">
+    <svg viewBox={`0 0 ${w + 2} ${h + 2}`} width={Math.min(240, w + 2)} role="img" aria-label="Structure factor S(q)" data-testid="structure-factor" data-ink-aware="">
       {rows.map((r, i) => {
         const ix = qx.indexOf(+r.q[0].toFixed(6));
         const iy = qy.indexOf(+r.q[1].toFixed(6));
         return (
-          <rect key={i} x={1 + ix * cell} y={1 + (qy.length - 1 - iy) * cell} width={cell - 1} height={cell - 1} fill={`rgb(29 38 64 / ${(0.06 + 0.94 * Math.max(0, r.value) / max).toFixed(3)})`}>
+          <rect key={i} x={1 + ix * cell} y={1 + (qy.length - 1 - iy) * cell} width={cell - 1} height={cell - 1} fill={INK} fillOpacity={(0.06 + (0.94 * Math.max(0, r.value)) / max).toFixed(3)}>
             <title>{`q = (${r.q[0].toFixed(3)}, ${r.q[1].toFixed(3)}): S = ${r.value.toPrecision(4)}`}</title>
           </rect>
         );
@@ -105,7 +112,7 @@ function StructureFactorGrid({ rows }: { rows: { q: [number, number]; value: num
   );
 }
 
-export function PointDetail({ pointKey, point, result, error, labelName }: Props) {
+export function PointDetail({ pointKey, point, result, error, labelName, bands }: Props) {
   return (
     <section className="space-y-3 rounded-xl border border-line bg-surface p-4" aria-label={`Point ${pointKey}`} data-testid="point-detail">
       <div className="flex flex-wrap items-baseline justify-between gap-2">
@@ -138,7 +145,7 @@ export function PointDetail({ pointKey, point, result, error, labelName }: Props
         <div className="grid gap-3 md:grid-cols-[minmax(0,1fr)_auto]">
           <div>
             <ClusterResult result={result} />
-            <p className="mt-1 text-xs text-ink-600">Site fill: density ⟨n⟩ (white 0, ink 1). Arrows: bond currents, width ∝ |current|. Plaquettes: flux, blue negative, vermillion positive.</p>
+            <p className="mt-1 text-xs text-ink-600">Site fill: density ⟨n⟩ (empty 0, full ink 1). Arrows: bond currents, width ∝ |current|. Plaquettes: flux, blue negative, vermillion positive.</p>
           </div>
           <div>
             <p className="text-xs font-semibold text-ink-700">S(q)</p>
@@ -150,6 +157,7 @@ export function PointDetail({ pointKey, point, result, error, labelName }: Props
           Recomputing this point in a worker for the full picture…
         </p>
       )}
+      {bands ? <BandsPanel model={bands.model} parameters={point.parameters} compute={bands.compute} fileBase={bands.fileBase} /> : null}
     </section>
   );
 }

@@ -1,9 +1,12 @@
 /**
  * Exports a plot (an <svg> element on the page) as a stand-alone SVG file with the Manrope font
  * embedded as a data URL (@font-face), and as a PNG rendered from that SVG at print resolution.
+ * Plots draw their ink through CSS variables (they follow the page's theme); a file gets the
+ * light theme's colours written in, so it reads the same in any viewer and on paper.
  */
 import manrope400 from '@fontsource/manrope/files/manrope-latin-400-normal.woff2?inline';
 import manrope600 from '@fontsource/manrope/files/manrope-latin-600-normal.woff2?inline';
+import { withLightColors } from './plot-colors.js';
 
 const FONT_CSS = `@font-face{font-family:'Manrope';font-style:normal;font-weight:400;src:url(${manrope400}) format('woff2');}
 @font-face{font-family:'Manrope';font-style:normal;font-weight:600;src:url(${manrope600}) format('woff2');}
@@ -26,7 +29,7 @@ export function svgDocument(svg: SVGSVGElement, width = svg.viewBox.baseVal?.wid
   bg.setAttribute('fill', '#ffffff');
   clone.insertBefore(bg, clone.firstChild);
   clone.insertBefore(style, clone.firstChild);
-  return `<?xml version="1.0" encoding="UTF-8"?>\n${new XMLSerializer().serializeToString(clone)}\n`;
+  return `<?xml version="1.0" encoding="UTF-8"?>\n${withLightColors(new XMLSerializer().serializeToString(clone))}\n`;
 }
 
 export function download(blob: Blob, filename: string) {
