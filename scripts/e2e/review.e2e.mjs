@@ -1,9 +1,12 @@
 // The review journey in the browser, against the real server and MariaDB, with the seeded demo
 // accounts (db/seeders/0001-demo-accounts.mjs: no registrations, so no registration rate limit):
 //   the editor runs a small ED cut in the demo project, the map syncs, the editor requests a review
-//   from the project's reviewer on the review page; the reviewer (second browser context) opens the
-//   project (the map is pulled), opens the review page, runs the spot-check in her own browser and
-//   approves; the editor sees the approval.
+//   from the project's reviewer on the review page; the site admin reads the review-request e-mail
+//   on the admin Mail page (the server's fake SMTP store); the reviewer (her own browser) follows
+//   the e-mail's link, signs in, the map is fetched, she runs the spot-check in her browser and
+//   approves; the editor sees the approval. Then the editor refines the sweep near the phase
+//   boundary (new points in the same map, pushed by the sync engine): the verdict is now outdated,
+//   and both the editor and the reviewer see that on the review page.
 // Every step a person does happens in the page.
 import assert from 'node:assert/strict';
 import { randomBytes } from 'node:crypto';
@@ -13,10 +16,11 @@ const run = randomBytes(3).toString('hex');
 const DEMO_PROJECT = 'Demo: kagome strip survey';
 const EDITOR = { email: 'otto.vane@example.org', password: 'editor-pebble-4821', displayName: 'Otto Vane' };
 const REVIEWER = { email: 'lena.quartz@example.org', password: 'review-thistle-4821', displayName: 'Lena Quartz' };
+const ADMIN = { email: 'ada.quill@example.org', password: 'admin-lantern-4821', displayName: 'Ada Quill' };
 
-/** @param {import('playwright-core').Page} page */
+/** @param {import('playwright-core').Page} page  `baseUrl` null: the sign-in form is already open. */
 async function signIn(page, baseUrl, who) {
-  await page.goto(`${baseUrl}/sign-in`);
+  if (baseUrl) await page.goto(`${baseUrl}/sign-in`);
   await page.locator('[data-path="email"]').fill(who.email);
   await page.locator('[data-path="password"]').fill(who.password);
   await page.getByRole('button', { name: 'Sign in' }).click();
@@ -37,7 +41,7 @@ async function openDemoProject(page, baseUrl) {
 
 export const tests = [
   {
-    name: 'review journey: editor requests a review, the reviewer spot-checks in her browser and approves, the editor sees the approval',
+    name: 'review journey: editor requests a review, the reviewer follows the e-mailed link, spot-checks in her browser and approves; refined points make the verdict outdated',
     async run({ baseUrl, page, screenshot }) {
       await signIn(page, baseUrl, EDITOR);
       const projectId = await openDemoProject(page, baseUrl);
@@ -56,7 +60,9 @@ export const tests = [
       await page.locator('[data-path="$.name"]').fill(`review cut ${run}`);
       await page.selectOption('[data-path="$.axes[0].parameter"]', 'V');
       await page.locator('[data-path="$.axes[0].from"]').fill('0');
-      await page.locator('[data-path="$.axes[0].to"]').fill('3');
+      // 0 … 6 in 5 points: superfluid on the left, density wave on the right of the 8-site ring, so
+      // that a refinement later adds a point between them.
+      await page.locator('[data-path="$.axes[0].to"]').fill('6');
       await page.locator('[data-path="$.axes[0].points"]').fill('5');
       await page.getByText('5 coarse points').waitFor();
       await page.getByRole('button', { name: 'Create sweep and start' }).click();
@@ -98,15 +104,39 @@ export const tests = [
       await page.locator('[data-testid="review"][data-status="requested"]').waitFor();
       await screenshot('review-2-requested');
 
-      // The reviewer, in her own browser: the map is pulled with the project, then the review page.
+      // The site admin reads the review-request e-mail on the Mail page (the server's fake SMTP store).
+      const adminBrowser = await launchFreshContext();
+      let reviewLink;
+      try {
+        const apage = adminBrowser.context.pages()[0] ?? (await adminBrowser.context.newPage());
+        await signIn(apage, baseUrl, ADMIN);
+        await apage.getByRole('link', { name: 'Mail' }).click();
+        await apage.getByRole('heading', { name: 'Captured mail' }).waitFor();
+        await apage.getByRole('textbox', { name: 'Recipient filter' }).fill(REVIEWER.email);
+        const message = apage.locator(`[data-mail-to="${REVIEWER.email}"]`).filter({ hasText: `review cut ${run}` }).first();
+        await message.waitFor({ timeout: 15_000 });
+        assert.match(await message.innerText(), /asks you to review/);
+        reviewLink = await message.locator('[data-mail-link]').first().getAttribute('href');
+        assert.ok(reviewLink, 'the e-mail carries a link');
+        await message.scrollIntoViewIfNeeded();
+        await screenshot('review-3-admin-mail', apage);
+      } finally {
+        await adminBrowser.close();
+      }
+      const reviewId = reviewLink.match(/\/reviews\/([0-9a-f-]{36})$/)?.[1];
+      assert.ok(reviewId, `the link names a review: ${reviewLink}`);
+      assert.ok(reviewLink.includes(reviewUrl.replace(/\/review$/, '').replace(baseUrl, '')), 'the link points at the same map');
+
+      // The reviewer, in her own browser, follows the e-mail's link: sign in, the map is fetched, the review page.
       const other = await launchFreshContext();
       try {
         const rpage = other.context.pages()[0] ?? (await other.context.newPage());
-        await signIn(rpage, baseUrl, REVIEWER);
-        await openDemoProject(rpage, baseUrl);
-        await rpage.getByRole('list', { name: 'Items' }).getByRole('link', { name: `review cut ${run}` }).last().waitFor({ timeout: 30_000 });
-        await rpage.goto(reviewUrl);
-        await rpage.getByTestId('provenance').waitFor();
+        await rpage.goto(new URL(reviewLink, baseUrl).href);
+        await rpage.getByTestId('review-sign-in').click();
+        await signIn(rpage, null, REVIEWER);
+        await rpage.waitForURL(new RegExp(`/reviews/${reviewId}$`));
+        await rpage.getByTestId('provenance').waitFor({ timeout: 30_000 });
+        await rpage.locator('[data-testid="review"][data-status="requested"]').first().waitFor();
         await rpage.getByTestId('spot-check-sample').fill('3');
         const t0 = Date.now();
         await rpage.getByTestId('spot-check-run').click();
@@ -114,22 +144,49 @@ export const tests = [
         await report.waitFor({ timeout: 60_000 });
         const spotMs = Date.now() - t0;
         assert.equal(await report.getAttribute('data-pass'), 'true', 'the in-browser spot-check passes');
-        await screenshot('review-3-spot-check', rpage);
+        await screenshot('review-4-spot-check', rpage);
         await rpage.getByTestId('verdict-approved').check();
         await rpage.getByTestId('verdict-note').fill(`Spot-check of 3 points reproduced the energies and labels (${(spotMs / 1000).toFixed(1)} s).`);
         await rpage.getByTestId('verdict-submit').click();
-        await rpage.locator('[data-testid="review"][data-status="approved"]').waitFor();
-        await screenshot('review-4-approved', rpage);
+        await rpage.locator('[data-testid="review"][data-status="approved"][data-outdated="false"]').waitFor();
+        await screenshot('review-5-approved', rpage);
         console.log(`     review journey: in-browser spot-check of 3 points took ${(spotMs / 1000).toFixed(1)} s`);
+
+        // The editor sees the approval.
+        await page.reload();
+        await page.locator('[data-testid="review"][data-status="approved"][data-outdated="false"]').waitFor({ timeout: 15_000 });
+        await page.getByTestId('review-verdict').filter({ hasText: 'approved' }).waitFor();
+        await screenshot('review-6-editor-sees-approval');
+
+        // The editor refines the sweep near the boundary: new points in the same map, pushed by the sync engine.
+        await page.getByRole('link', { name: 'Back to the map' }).click();
+        await page.getByRole('link', { name: 'The sweep and its run' }).click();
+        await page.waitForURL(/\/sweeps\//);
+        await page.locator('[data-run-state="done"]').waitFor();
+        await page.locator('[data-path="$.refine.maxDepth"]').fill('1');
+        await page.getByTestId('refine-run').click();
+        // 5 stored points skipped, one new point between the last superfluid and the first density-wave point.
+        await page.locator('[data-run-state="done"] [data-testid="points-done"]').filter({ hasText: /^6$/ }).waitFor({ timeout: 30_000 });
+        await syncPhase(page, 'up-to-date', 40_000);
+        await screenshot('review-7-refined');
+        await page.getByRole('link', { name: 'Open the map' }).click();
+        await page.getByTestId('map-review-link').click();
+        await page.waitForURL(/\/review$/);
+        await page.locator('[data-testid="review"][data-status="approved"][data-outdated="true"]').waitFor({ timeout: 15_000 });
+        await page.getByTestId('review-outdated-summary').waitFor();
+        assert.match(await page.getByRole('heading', { level: 1 }).locator('..').innerText(), /6 points/, 'the refined map has one point more');
+        await screenshot('review-8-editor-sees-outdated');
+
+        // The reviewer sees it too.
+        await rpage.reload();
+        await rpage.locator('[data-testid="review"][data-status="approved"][data-outdated="true"]').waitFor({ timeout: 15_000 });
+        await rpage.getByTestId('review-outdated-summary').waitFor();
+        // Her copy of the map gets the new point with the next sync round.
+        await rpage.getByText(/· 6 points$/).waitFor({ timeout: 40_000 });
+        await screenshot('review-9-reviewer-sees-outdated', rpage);
       } finally {
         await other.close();
       }
-
-      // The editor sees the approval.
-      await page.reload();
-      await page.locator('[data-testid="review"][data-status="approved"][data-outdated="false"]').waitFor({ timeout: 15_000 });
-      await page.getByTestId('review-verdict').filter({ hasText: 'approved' }).waitFor();
-      await screenshot('review-5-editor-sees-approval');
     },
   },
 ];

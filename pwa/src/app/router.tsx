@@ -23,8 +23,11 @@ export const routes: RouteObject[] = [
       { path: 'projects/:id', lazy: () => import('./routes/project-home.js') },
       { path: 'projects/:id/members', lazy: () => import('./routes/members.js') },
       { path: 'projects/:projectId/maps/:mapId/review', lazy: () => import('./routes/review-page.js') },
+      // The address a review-request e-mail links to (sync-server/src/reviews/reviews.service.ts).
+      { path: 'projects/:projectId/maps/:mapId/reviews/:reviewId', lazy: () => import('./routes/review-page.js') },
       { path: 'sign-in', lazy: () => import('./routes/sign-in.js') },
       { path: 'register', lazy: () => import('./routes/register.js') },
+      { path: 'reset-password', lazy: () => import('./routes/reset-password.js') },
       { path: 'invitations/accept', lazy: () => import('./routes/invitation-accept.js') },
       { path: 'admin/mail', lazy: () => import('./routes/admin-mail.js') },
       { path: 'sync', lazy: () => import('./routes/sync.js') },

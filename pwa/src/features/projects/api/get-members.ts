@@ -19,6 +19,7 @@ export function getMembers(projectId: string, { signal }: { signal?: AbortSignal
 export const membersQueryOptions = (projectId: string) =>
   queryOptions({ queryKey: projectKeys.members(projectId), queryFn: ({ signal }) => getMembers(projectId, { signal }), retry: false });
 
-export function useMembers(projectId: string) {
-  return useQuery(membersQueryOptions(projectId));
+/** `enabled` false while nobody is signed in (the call would only fail, and the failure would stay cached). */
+export function useMembers(projectId: string, enabled = true) {
+  return useQuery({ ...membersQueryOptions(projectId), enabled });
 }

@@ -81,6 +81,7 @@ export function getReviews(projectId: string, mapId: string, { signal }: { signa
 export const reviewsQueryOptions = (projectId: string, mapId: string) =>
   queryOptions({ queryKey: reviewKeys.map(projectId, mapId), queryFn: ({ signal }) => getReviews(projectId, mapId, { signal }), retry: false });
 
-export function useReviews(projectId: string, mapId: string) {
-  return useQuery(reviewsQueryOptions(projectId, mapId));
+/** `enabled` false while nobody is signed in (the call would only fail). */
+export function useReviews(projectId: string, mapId: string, enabled = true) {
+  return useQuery({ ...reviewsQueryOptions(projectId, mapId), enabled });
 }

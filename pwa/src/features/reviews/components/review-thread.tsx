@@ -67,7 +67,7 @@ export function ReviewThread({ projectId, review, myUserId, canComment, pointKey
   const isReviewer = !!myUserId && review.reviewerId === myUserId;
   return (
     <Card
-      title={`Review requested by ${names[review.requestedBy ?? ''] ?? 'someone'} of ${names[review.reviewerId ?? ''] ?? 'a reviewer'}`}
+      title={`Review by ${names[review.reviewerId ?? ''] ?? 'a reviewer'}, requested by ${names[review.requestedBy ?? ''] ?? 'a member'}`}
       aside={
         <span className="flex gap-2">
           <Badge tone={statusTone[review.status]}>{statusText[review.status]}</Badge>
@@ -85,7 +85,11 @@ export function ReviewThread({ projectId, review, myUserId, canComment, pointKey
             {review.pointCount !== null ? ` (covering ${review.pointCount} points)` : ''} — {review.verdictNote}
           </p>
         ) : null}
-        {review.outdated ? <p className="text-amber-900">The map gained or changed points after the verdict: it no longer covers all of the map.</p> : null}
+        {review.outdated ? (
+          <p className="text-amber-900" data-testid="review-outdated-note">
+            The map gained or changed points after the verdict: it covers the {review.pointCount ?? ''} points of that moment, not all of the map now.
+          </p>
+        ) : null}
         <div>
           <h3 className="font-semibold">Comments</h3>
           {review.comments.length === 0 ? <p className="text-ink-600">None yet.</p> : null}
