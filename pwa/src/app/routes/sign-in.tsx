@@ -32,6 +32,11 @@ export function Component() {
         </Link>
         .
       </p>
+      {params.get('reset') === 'done' ? (
+        <Notice tone="info" title="Your password is changed" live>
+          <span data-testid="reset-done">Every device of this account was signed out. Sign in with the new password.</span>
+        </Notice>
+      ) : null}
       {!online ? <Notice tone="warn" title="This device is offline">Signing in needs the server. Your local work is still here.</Notice> : null}
       <form
         aria-label="Sign in"
@@ -48,9 +53,14 @@ export function Component() {
             {errorText(signIn.error)}
           </Notice>
         ) : null}
-        <Button type="submit" disabled={signIn.isPending}>
-          {signIn.isPending ? 'Signing in…' : 'Sign in'}
-        </Button>
+        <div className="flex flex-wrap items-center justify-between gap-3">
+          <Button type="submit" disabled={signIn.isPending}>
+            {signIn.isPending ? 'Signing in…' : 'Sign in'}
+          </Button>
+          <Link className="text-sm font-semibold text-accent-700 underline underline-offset-2" to={`/reset-password${email.trim() ? `?email=${encodeURIComponent(email.trim())}` : ''}`}>
+            Forgot password?
+          </Link>
+        </div>
       </form>
       <p className="text-sm text-ink-700">
         No account yet?{' '}
