@@ -3,16 +3,13 @@ import type { ReactNode } from 'react';
 import { Link, NavLink, Outlet, useNavigate } from 'react-router-dom';
 import { useSignOut } from '../../features/auth/api/sign-out.js';
 import { SyncBadge } from '../../features/sync/components/sync-badge.js';
+import { UpdatePrompt } from '../../features/sync/components/update-prompt.js';
 import { useSession } from '../../lib/auth.js';
 import { Badge } from '../../components/ui/badge.js';
 import { Button } from '../../components/ui/button.js';
 import { LogoMark } from '../../components/ui/logo-mark.js';
 import { ThemeToggle } from '../../components/ui/theme-toggle.js';
-import {
-  dismissServiceWorkerNotice,
-  reloadWithUpdate,
-  useServiceWorkerState,
-} from '../../lib/service-worker.js';
+import { dismissServiceWorkerNotice, useServiceWorkerState } from '../../lib/service-worker.js';
 import { useOnlineStatus } from '../../lib/use-online-status.js';
 
 const NAV_ITEMS = [
@@ -64,23 +61,20 @@ function navClass({ isActive }: { isActive: boolean }): string {
   }`;
 }
 
+/** "Ready offline" once; a new version gets the sync-aware update prompt instead. */
 function ServiceWorkerNotice() {
   const { offlineReady, needRefresh } = useServiceWorkerState();
-  if (!offlineReady && !needRefresh) return null;
+  if (needRefresh) return <UpdatePrompt />;
+  if (!offlineReady) return null;
   return (
     <div
       role="status"
       className="fixed right-4 bottom-4 z-10 max-w-sm rounded-lg border border-line bg-surface p-4 shadow-lg"
     >
-      <p className="text-sm text-ink-900">
-        {needRefresh
-          ? 'A new version of Phasewright is ready. Reload when no computation is running.'
-          : 'Phasewright is cached on this device and will open without a network.'}
-      </p>
+      <p className="text-sm text-ink-900">Phasewright is cached on this device and will open without a network.</p>
       <div className="mt-3 flex gap-2">
-        {needRefresh ? <Button onClick={() => void reloadWithUpdate()}>Reload</Button> : null}
         <Button variant="secondary" onClick={dismissServiceWorkerNotice}>
-          {needRefresh ? 'Later' : 'OK'}
+          OK
         </Button>
       </div>
     </div>
