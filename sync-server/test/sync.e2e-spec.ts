@@ -1,4 +1,4 @@
-import { randomUUID } from 'node:crypto';
+import { createHash, randomUUID } from 'node:crypto';
 import http from 'node:http';
 import type { AddressInfo } from 'node:net';
 import {
@@ -117,10 +117,16 @@ describe('map sync against the private MariaDB', () => {
 
   /** Row counts and checksums of every sync table: equal snapshots mean an unchanged database. */
   async function snapshot(): Promise<string> {
-    const tables = ['project_sync_state', 'sync_batches', 'sync_records', 'maps', 'map_points'];
+    const tables = ['project_sync_state', 'sync_batches', 'sync_records', 'maps', 'map_point_blocks'];
     const counts = await Promise.all(tables.map(async (t) => (await rows<{ n: number }>(`SELECT COUNT(*) AS n FROM ${t}`))[0]!.n));
     const sums = await rows<{ Table: string; Checksum: number }>(`CHECKSUM TABLE ${tables.join(', ')}`);
     return JSON.stringify({ counts: counts.map(Number), sums: sums.map((s) => [s.Table.split('.').pop(), String(s.Checksum)]) });
+  }
+
+  /** Point keys stored for a map (block rows hold [key, hash] pairs), in block order. */
+  async function storedKeys(mapId: string): Promise<string[]> {
+    const blocks = await rows<{ k: string }>('SELECT b.point_keys AS k FROM map_point_blocks b JOIN maps m ON m.pk = b.map_pk WHERE m.id = ? ORDER BY b.block_no', [mapId]);
+    return blocks.flatMap((b) => (JSON.parse(b.k) as [string, string][]).map(([key]) => key));
   }
 
   /** Every change after 0, in pages of `limit`, folded into maps (by map id) and records. */
@@ -160,16 +166,19 @@ describe('map sync against the private MariaDB', () => {
     const expected = mergeMaps([a, b]);
     expect(expected.points[altered]!.disputed).toHaveLength(1);
 
-    // One map row (same identity under two client ids), one row per point key.
+    // One map row (same identity under two client ids), each point key stored once.
     const stored = await rows<{ id: string; pointCount: number }>('SELECT id, point_count AS pointCount FROM maps WHERE project_id = ?', [projectId]);
     expect(stored).toHaveLength(1);
-    expect(await rows('SELECT point_key FROM map_points GROUP BY map_pk, point_key HAVING COUNT(*) > 1')).toEqual([]);
+    const keys = await storedKeys(stored[0]!.id);
+    expect(new Set(keys).size).toBe(keys.length);
+    expect(keys.sort()).toEqual(Object.keys(expected.points).sort());
     expect(Number(stored[0]!.pointCount)).toBe(Object.keys(expected.points).length);
     const second = [ra.body, rb.body].find((r) => r.results[0].status !== 'created');
     expect(second.results[0].storedAs).toBe(stored[0]!.id);
 
+    // Pages of 4: the 9 points are one block (a page holds whole blocks), the map's metadata another page.
     const pulled = await pullAll(viewer, 4);
-    expect(pulled.pages).toBeGreaterThan(2);
+    expect(pulled.pages).toBeGreaterThanOrEqual(2);
     const map = pulled.maps.get(stored[0]!.id)!;
     expect(canonicalJson(sortedPoints(map))).toBe(canonicalJson(expected.points));
     expect(canonicalJson(map.provenance)).toBe(canonicalJson(expected.provenance));
@@ -219,7 +228,7 @@ describe('map sync against the private MariaDB', () => {
     // The fixture grid is already stored (same identity, pushed by the replay test): the points merge into it.
     expect(retry.body.results.map((r: { status: string }) => r.status)).toEqual(['merged', 'updated']);
     expect(retry.body.results[0].points).toMatchObject({ received: 2000, added: 2000 });
-    expect(await rows('SELECT point_key FROM map_points p JOIN maps m ON m.pk = p.map_pk WHERE m.id = ?', [retry.body.results[0].storedAs])).toHaveLength(2400);
+    expect(await storedKeys(retry.body.results[0].storedAs)).toHaveLength(2400);
   });
 
   it('a push aborted by the client while sending stores nothing; the retry succeeds', async () => {
@@ -243,6 +252,21 @@ describe('map sync against the private MariaDB', () => {
     expect(await snapshot()).toBe(before);
     const retry = await push(editor, JSON.parse(body)).expect(200);
     expect(retry.body.results[0].points.added).toBe(200);
+  });
+
+  it('pulls the 2600-point grid map in pages of whole blocks: every point once, equal to the physics-core merge of what was pushed', async () => {
+    const pulled = await pullAll(viewer, 300);
+    expect(pulled.pages).toBeGreaterThanOrEqual(9);
+    const [grid] = await rows<{ id: string; digest: string }>('SELECT id, points_digest AS digest FROM maps WHERE project_id = ? AND name = ?', [projectId, 'fixture grid']);
+    const map = pulled.maps.get(grid!.id)!;
+    // The three pushes above (replay, interrupted retry, aborted retry) cover disjoint slices of the grid.
+    const expected = mergeMaps([fixtureMap('replayer', 0, 400), fixtureMap('interrupted', 400, 2400), fixtureMap('aborter', 2400, 2600)]);
+    expect(Object.keys(map.points)).toHaveLength(2600);
+    expect(canonicalJson(sortedPoints(map))).toBe(canonicalJson(expected.points));
+    // The point-set digest, recomputed here from its definition: SHA-256 of sorted "key<TAB>sha256(canonical point)" lines.
+    const sha = (t: string) => createHash('sha256').update(t, 'utf8').digest('hex');
+    const lines = Object.keys(expected.points).sort().map((k) => `${k}\t${sha(canonicalJson(expected.points[k]))}\n`);
+    expect(grid!.digest).toBe(sha(lines.join('')));
   });
 
   it('a stale annotation edit is a 409 carrying both versions; nothing is overwritten', async () => {

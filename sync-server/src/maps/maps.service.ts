@@ -5,6 +5,7 @@ import { QueryTypes, type Transaction } from 'sequelize';
 import type { Sequelize } from 'sequelize-typescript';
 import type { MapSummaryDto } from './dto/map.dto.js';
 import { assembleMap, MAP_COLUMNS, type MapRow, normaliseMapRow } from './map-rows.js';
+import { decodeBlock, type PointBlock } from './point-blocks.js';
 
 const UUID = /^[0-9a-f]{8}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{12}$/i;
 
@@ -25,31 +26,44 @@ export class MapsService {
     return normaliseMapRow(rows[0]);
   }
 
-  /** Points of a map (all, or those of the given keys), keyed by point key. */
-  async points(mapPk: number, keys?: string[], transaction?: Transaction): Promise<Record<string, MapPoint>> {
-    return (await this.pointsWithText(mapPk, keys, transaction)).points;
+  /** Keys and hashes of every point of a map, block by block (no point texts). */
+  async directory(mapPk: number, transaction?: Transaction): Promise<PointBlock[]> {
+    const rows = await this.sequelize.query<{ b: number; k: string }>('SELECT block_no AS b, point_keys AS k FROM map_point_blocks WHERE map_pk = ? ORDER BY block_no', {
+      type: QueryTypes.SELECT,
+      replacements: [mapPk],
+      transaction,
+    });
+    return rows.map((r) => decodeBlock(Number(r.b), r.k));
   }
 
-  /** Points and their stored canonical text (sync compares merged results with it). */
-  async pointsWithText(mapPk: number, keys?: string[], transaction?: Transaction): Promise<{ points: Record<string, MapPoint>; texts: Map<string, string> }> {
+  /** Blocks of a map with their point texts (all, or those of the given numbers). */
+  async blocks(mapPk: number, blockNos?: number[], transaction?: Transaction): Promise<PointBlock[]> {
+    if (blockNos !== undefined && blockNos.length === 0) return [];
+    const rows = await this.sequelize.query<{ b: number; k: string; d: Buffer }>(
+      `SELECT block_no AS b, point_keys AS k, data AS d FROM map_point_blocks WHERE map_pk = ?${blockNos ? ' AND block_no IN (?)' : ''} ORDER BY block_no`,
+      { type: QueryTypes.SELECT, replacements: blockNos ? [mapPk, blockNos] : [mapPk], transaction },
+    );
+    return rows.map((r) => decodeBlock(Number(r.b), r.k, r.d));
+  }
+
+  /** Every point key of a map. */
+  async keys(mapPk: number, transaction?: Transaction): Promise<string[]> {
+    return (await this.directory(mapPk, transaction)).flatMap((b) => b.entries.map((e) => e.key));
+  }
+
+  /** Points of a map (all, or those of the given keys that it holds), keyed by point key. */
+  async points(mapPk: number, keys?: string[], transaction?: Transaction): Promise<Record<string, MapPoint>> {
     const out: Record<string, MapPoint> = {};
-    const texts = new Map<string, string>();
-    const add = (rows: { k: string; d: string }[]) => {
-      for (const r of rows) {
-        out[r.k] = JSON.parse(r.d) as MapPoint;
-        texts.set(r.k, r.d);
-      }
-    };
     if (keys === undefined) {
-      add(await this.sequelize.query<{ k: string; d: string }>('SELECT point_key AS k, data AS d FROM map_points WHERE map_pk = ? ORDER BY point_key', { type: QueryTypes.SELECT, replacements: [mapPk], transaction }));
-      return { points: out, texts };
+      for (const b of await this.blocks(mapPk, undefined, transaction)) for (const e of b.entries) out[e.key] = JSON.parse(e.text as string) as MapPoint;
+      return out;
     }
-    for (let i = 0; i < keys.length; i += 1000) {
-      const chunk = keys.slice(i, i + 1000);
-      if (chunk.length === 0) break;
-      add(await this.sequelize.query<{ k: string; d: string }>('SELECT point_key AS k, data AS d FROM map_points WHERE map_pk = ? AND point_key IN (?)', { type: QueryTypes.SELECT, replacements: [mapPk, chunk], transaction }));
+    const wanted = new Set(keys);
+    const nos = (await this.directory(mapPk, transaction)).filter((b) => b.entries.some((e) => wanted.has(e.key))).map((b) => b.blockNo);
+    for (const b of await this.blocks(mapPk, nos, transaction)) {
+      for (const e of b.entries) if (wanted.has(e.key)) out[e.key] = JSON.parse(e.text as string) as MapPoint;
     }
-    return { points: out, texts };
+    return out;
   }
 
   /** The whole stored map as a phasewright.map/1 document (points sorted by key). */

@@ -87,11 +87,8 @@ export class ReviewsService {
   async comment(access: ProjectAccess, userId: string, reviewId: string, body: CommentDto): Promise<ReviewDto> {
     const review = await this.get(access.projectId, reviewId);
     if (body.pointKey !== undefined) {
-      const found = await this.sequelize.query('SELECT p.point_key FROM map_points p JOIN maps m ON m.pk = p.map_pk WHERE m.project_id = ? AND m.id = ? AND p.point_key = ?', {
-        type: QueryTypes.SELECT,
-        replacements: [access.projectId, review.mapId, body.pointKey],
-      });
-      if (found.length === 0) throw fieldError('pointKey', `the map has no point "${body.pointKey}"`);
+      const map = await this.maps.find(access.projectId, review.mapId);
+      if (!(await this.maps.keys(map.pk)).includes(body.pointKey)) throw fieldError('pointKey', `the map has no point "${body.pointKey}"`);
     }
     await this.sequelize.query('INSERT INTO review_comments (id, review_id, author_id, point_key, body) VALUES (?, ?, ?, ?, ?)', {
       replacements: [randomUUID(), reviewId, userId, body.pointKey ?? null, body.body],

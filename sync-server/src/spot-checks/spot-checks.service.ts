@@ -56,7 +56,7 @@ export class SpotChecksService {
 
   private async execute(projectId: string, userId: string, mapPk: number, mapId: string, sweep: SweepSpec, body: RunSpotCheckDto): Promise<SpotCheckReportDto> {
     const seed = body.seed ?? 1;
-    const allKeys = (await this.sequelize.query<{ k: string }>('SELECT point_key AS k FROM map_points WHERE map_pk = ?', { type: QueryTypes.SELECT, replacements: [mapPk] })).map((r) => r.k);
+    const allKeys = await this.maps.keys(mapPk);
     if (allKeys.length === 0) throw new BadRequestException({ message: 'The map has no points to re-run yet', details: null });
     const keys = samplePointKeys(allKeys, body.sample, seed);
     const stored = await this.maps.points(mapPk, keys);

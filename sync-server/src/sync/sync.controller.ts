@@ -54,9 +54,12 @@ export class SyncController {
 
   @Get('pull')
   @ProjectRoles(...ANY_MEMBER)
-  @ApiOperation({ summary: 'Changes after a cursor, oldest first, in pages (any member); each record, map and point appears in its latest state' })
+  @ApiOperation({ summary: 'Changes after a cursor, oldest first, in pages (any member); each record, map and point appears in its latest state. `limit` counts records, maps and points; points come in whole blocks (up to 250), so a page of one block may exceed it' })
   @ApiOkResponse({ type: PullResponse })
-  pull(@CurrentAccess() access: ProjectAccess, @Query() query: PullQueryDto): Promise<PullResponse> {
-    return this.sync.pull(access.projectId, query.after ?? 0, query.limit ?? DEFAULT_PAGE);
+  async pull(@CurrentAccess() access: ProjectAccess, @Query() query: PullQueryDto, @Res({ passthrough: true }) res: Response): Promise<string> {
+    // The service writes the PullResponse JSON itself (stored point texts spliced in).
+    const text = await this.sync.pull(access.projectId, query.after ?? 0, query.limit ?? DEFAULT_PAGE);
+    res.type('application/json');
+    return text;
   }
 }

@@ -17,7 +17,8 @@ import type { Sequelize } from 'sequelize-typescript';
 import type { ProjectAccess } from '../common/auth-user.js';
 import { assembleMap, MAP_COLUMNS, type MapRow, normaliseMapRow, pointsDigest, pointText } from '../maps/map-rows.js';
 import { MapsService } from '../maps/maps.service.js';
-import type { PullChange, PullResponse, PushResponse, PushResult } from './dto/sync.dto.js';
+import { type BlockEntry, decodeBlock, encodeBlock, type PointBlock, type PointPlaces, placePoints, placesOf } from '../maps/point-blocks.js';
+import type { PullChange, PushResponse, PushResult } from './dto/sync.dto.js';
 import { SYNC_CONFIG, type SyncConfig } from './sync-config.js';
 import {
   type ChangeInput,
@@ -34,7 +35,8 @@ import {
 /** A change after the checks that need no database (maps parsed by physics-core). */
 type Prepared = { change: ChangeInput; index: number; map?: PhaseMap };
 
-const POINT_ROWS_PER_BATCH = 2000;
+/** Bytes of block rows per driver batch (the server's max_allowed_packet is 16 MiB). */
+const BLOCK_BYTES_PER_BATCH = 4 * 1024 * 1024;
 const DEADLOCK = /deadlock|lock wait timeout/i;
 
 /** Push and pull of a project's models, sweeps, maps, points, annotations and notes. */
@@ -262,12 +264,33 @@ export class SyncService {
 
     const keys = Object.keys(incoming.points);
     let merged: PhaseMap;
-    let stored = new Map<string, string>();
+    // The map's blocks (keys and hashes of all; texts of those holding pushed keys and of the last).
+    const blocks = new Map<number, PointBlock>();
+    let where: PointPlaces = new Map();
+    const stored = new Map<string, string>();
     const t0 = performance.now();
     if (row) {
-      const loaded = await this.maps.pointsWithText(row.pk, keys, tx);
-      stored = loaded.texts;
-      merged = mergeMaps([assembleMap(row, loaded.points), incoming]);
+      const directory = await this.maps.directory(row.pk, tx);
+      where = placesOf(directory);
+      for (const b of directory) blocks.set(b.blockNo, b);
+      const needed = new Set<number>();
+      let fresh = false;
+      for (const key of keys) {
+        const at = where.get(key);
+        if (at) needed.add(at.blockNo);
+        else fresh = true;
+      }
+      if (fresh && directory.length > 0) needed.add(directory[directory.length - 1].blockNo);
+      for (const b of await this.maps.blocks(row.pk, [...needed], tx)) blocks.set(b.blockNo, b);
+      const points: Record<string, MapPoint> = {};
+      for (const key of keys) {
+        const at = where.get(key);
+        if (!at) continue;
+        const text = (blocks.get(at.blockNo) as PointBlock).entries[at.index].text as string;
+        stored.set(key, text);
+        points[key] = JSON.parse(text) as MapPoint;
+      }
+      merged = mergeMaps([assembleMap(row, points), incoming]);
     } else {
       merged = mergeMaps([incoming]);
     }
@@ -291,7 +314,7 @@ export class SyncService {
     let added = 0;
     let updated = 0;
     let disputed = 0;
-    const writes: unknown[][] = [];
+    const changed: BlockEntry[] = [];
     for (const key of keys) {
       const point = merged.points[key];
       const { text, hash } = pointText(point);
@@ -300,42 +323,60 @@ export class SyncService {
       if (before === undefined) added++;
       else updated++;
       if (point.disputed?.length) disputed++;
-      writes.push([pk, key, projectId, next(), hash, point.energy, point.label?.id ?? null, point.disputed?.length ? 1 : 0, text]);
+      changed.push({ key, hash, text });
     }
+    const touched = placePoints(blocks, where, changed);
     const t2 = performance.now();
     // The driver's batch (one prepared statement, rows sent in bulk) on the transaction's own
-    // connection: several times faster than one long INSERT text built and escaped in JavaScript.
+    // connection, in parts of at most ~4 MB (below the server's max_allowed_packet).
     const connection = (tx as unknown as { connection: { batch(sql: string, values: unknown[][]): Promise<unknown> } }).connection;
-    for (let i = 0; i < writes.length; i += POINT_ROWS_PER_BATCH) {
+    let part: unknown[][] = [];
+    let bytes = 0;
+    const flush = async () => {
+      if (part.length === 0) return;
       await connection.batch(
-        'INSERT INTO map_points (map_pk, point_key, project_id, seq, hash, energy, label_id, disputed, data) VALUES (?, ?, ?, ?, ?, ?, ?, ?, ?) ' +
-          'ON DUPLICATE KEY UPDATE seq = VALUES(seq), hash = VALUES(hash), energy = VALUES(energy), label_id = VALUES(label_id), disputed = VALUES(disputed), data = VALUES(data)',
-        writes.slice(i, i + POINT_ROWS_PER_BATCH),
+        'INSERT INTO map_point_blocks (map_pk, block_no, project_id, seq, point_count, point_keys, data) VALUES (?, ?, ?, ?, ?, ?, ?) ' +
+          'ON DUPLICATE KEY UPDATE seq = VALUES(seq), point_count = VALUES(point_count), point_keys = VALUES(point_keys), data = VALUES(data)',
+        part,
       );
+      part = [];
+      bytes = 0;
+    };
+    for (const blockNo of touched) {
+      const block = blocks.get(blockNo) as PointBlock;
+      const encoded = encodeBlock(block.entries);
+      part.push([pk, blockNo, projectId, next(), block.entries.length, encoded.keys, encoded.data]);
+      bytes += encoded.keys.length + encoded.data.byteLength;
+      if (bytes > BLOCK_BYTES_PER_BATCH) await flush();
     }
+    await flush();
 
     const metadataChanged = !row || row.sweep !== sweepText || row.provenance !== provenanceText;
-    if (writes.length > 0 || metadataChanged) {
-      const hashes = await this.sequelize.query<{ k: string; h: string }>('SELECT point_key AS k, hash AS h FROM map_points WHERE map_pk = ?', { type: QueryTypes.SELECT, replacements: [pk], transaction: tx });
-      const digest = pointsDigest(hashes.map((r) => [r.k, r.h]));
+    if (changed.length > 0 || metadataChanged) {
+      const digest = pointsDigest([...blocks.values()].flatMap((b) => b.entries.map((e): [string, string] => [e.key, e.hash])));
       await this.sequelize.query(
         'UPDATE maps SET sweep = ?, provenance = ?, name = ?, point_count = ?, points_digest = ?, seq = ?, updated_by = ?, updated_at = CURRENT_TIMESTAMP(3) WHERE pk = ?',
-        { replacements: [sweepText, provenanceText, merged.sweep.name ?? null, hashes.length, digest, next(), userId, pk], transaction: tx },
+        { replacements: [sweepText, provenanceText, merged.sweep.name ?? null, where.size, digest, next(), userId, pk], transaction: tx },
       );
     }
     const t3 = performance.now();
-    this.logger.verbose(`map ${change.id}: ${keys.length} points; load + merge ${(t1 - t0).toFixed(0)} ms, serialise ${(t2 - t1).toFixed(0)} ms, write ${writes.length} rows + digest ${(t3 - t2).toFixed(0)} ms`);
+    this.logger.verbose(`map ${change.id}: ${keys.length} points; load + merge ${(t1 - t0).toFixed(0)} ms, serialise ${(t2 - t1).toFixed(0)} ms, write ${changed.length} points in ${touched.length} blocks + digest ${(t3 - t2).toFixed(0)} ms`);
     const storedAs = row && row.id !== change.id ? row.id : undefined;
-    const status = !row ? 'created' : writes.length > 0 || metadataChanged ? 'merged' : 'unchanged';
+    const status = !row ? 'created' : changed.length > 0 || metadataChanged ? 'merged' : 'unchanged';
     return { kind: change.kind, id: change.id, status, ...(storedAs ? { storedAs } : {}), points: { received: keys.length, added, updated, unchanged: keys.length - added - updated, disputed } };
   }
 
-  /** Changes after `after`, oldest first, at most `limit` rows (a points change groups consecutive rows of one map). */
-  async pull(projectId: string, after: number, limit: number): Promise<PullResponse> {
+  /**
+   * Changes after `after`, oldest first, as the JSON text of a PullResponse: records and maps count
+   * one each, blocks of points their point count; a page holds whole blocks, at most `limit` points
+   * and records unless its first block alone is larger. A points change groups consecutive blocks of one map.
+   */
+  async pull(projectId: string, after: number, limit: number): Promise<string> {
     if (limit > this.config.maxPullLimit) throw new BadRequestException({ message: `limit must be at most ${this.config.maxPullLimit}`, details: [{ path: 'limit', problems: [`limit must not be greater than ${this.config.maxPullLimit}`] }] });
     return this.sequelize.transaction({ isolationLevel: Transaction.ISOLATION_LEVELS.REPEATABLE_READ }, async (tx) => {
       const q = <T extends object>(sql: string) => this.sequelize.query<T>(sql, { type: QueryTypes.SELECT, replacements: [projectId, after, limit + 1], transaction: tx });
-      type Item = { seq: number; change: PullChange; mapId?: string; key?: string; point?: MapPoint };
+      /** A record or map change (weight 1) or a block of points (weight: its point count, data read later). */
+      type Item = { seq: number; change?: PullChange; mapId?: string; points?: number };
       const items: Item[] = [];
       for (const r of await q<{ id: string; kind: RecordKind; revision: number; seq: number; data: string; updatedBy: string | null; updatedAt: Date }>(
         'SELECT id, kind, revision, seq, data, updated_by AS updatedBy, updated_at AS updatedAt FROM sync_records WHERE project_id = ? AND seq > ? ORDER BY seq LIMIT ?',
@@ -346,26 +387,53 @@ export class SyncService {
         const m = normaliseMapRow(raw);
         items.push({ seq: m.seq, change: { seq: m.seq, kind: 'map', id: m.id, data: assembleMap(m, {}) as unknown as Record<string, unknown>, pointCount: m.pointCount, pointsDigest: m.pointsDigest, updatedBy: m.updatedBy, updatedAt: m.updatedAt } });
       }
-      for (const r of await q<{ mapId: string; k: string; seq: number; d: string }>(
-        'SELECT m.id AS mapId, p.point_key AS k, p.seq, p.data AS d FROM map_points p JOIN maps m ON m.pk = p.map_pk WHERE p.project_id = ? AND p.seq > ? ORDER BY p.seq LIMIT ?',
+      for (const r of await q<{ mapId: string; seq: number; n: number }>(
+        'SELECT m.id AS mapId, b.seq, b.point_count AS n FROM map_point_blocks b JOIN maps m ON m.pk = b.map_pk WHERE b.project_id = ? AND b.seq > ? ORDER BY b.seq LIMIT ?',
       )) {
-        items.push({ seq: Number(r.seq), change: undefined as unknown as PullChange, mapId: r.mapId, key: r.k, point: JSON.parse(r.d) as MapPoint });
+        items.push({ seq: Number(r.seq), mapId: r.mapId, points: Number(r.n) });
       }
       items.sort((a, b) => a.seq - b.seq);
-      const hasMore = items.length > limit;
-      const page = items.slice(0, limit);
+      // A page holds whole blocks: items while their weight fits the limit (at least one item). It
+      // never skips an unread row: each kind was read up to limit + 1 rows, more than a page holds.
+      let weight = 0;
+      let end = 0;
+      while (end < items.length) {
+        const w = items[end].points ?? 1;
+        if (end > 0 && weight + w > limit) break;
+        weight += w;
+        end++;
+      }
+      const hasMore = end < items.length;
+      const page = items.slice(0, end);
+      const blockSeqs = page.flatMap((i) => (i.points === undefined ? [] : [i.seq]));
+      const texts = new Map<number, PointBlock>();
+      if (blockSeqs.length > 0) {
+        for (const r of await this.sequelize.query<{ seq: number; k: string; d: Buffer }>('SELECT seq, point_keys AS k, data AS d FROM map_point_blocks WHERE project_id = ? AND seq IN (?)', {
+          type: QueryTypes.SELECT,
+          replacements: [projectId, blockSeqs],
+          transaction: tx,
+        })) {
+          texts.set(Number(r.seq), decodeBlock(-1, r.k, r.d));
+        }
+      }
+      // Points travel as their stored canonical texts, spliced into the response text (no parse and
+      // re-stringify of every point); `raw` holds them per points change.
       const changes: PullChange[] = [];
+      const raw = new Map<PullChange, BlockEntry[]>();
       for (const item of page) {
-        if (item.point === undefined) {
+        if (item.change) {
           changes.push(item.change);
           continue;
         }
         const last = changes.at(-1);
+        const entries = (texts.get(item.seq) as PointBlock).entries;
         if (last && last.kind === 'points' && last.id === item.mapId) {
-          (last.data.points as Record<string, MapPoint>)[item.key as string] = item.point;
+          (raw.get(last) as BlockEntry[]).push(...entries);
           last.seq = item.seq;
         } else {
-          changes.push({ seq: item.seq, kind: 'points', id: item.mapId as string, data: { points: { [item.key as string]: item.point } } });
+          const c: PullChange = { seq: item.seq, kind: 'points', id: item.mapId as string, data: {} };
+          changes.push(c);
+          raw.set(c, [...entries]);
         }
       }
       // A map's metadata row is rewritten (new seq) whenever its points change, so it may sort after
@@ -394,7 +462,13 @@ export class SyncService {
       }
       const [state] = await this.sequelize.query<{ lastSeq: number }>('SELECT last_seq AS lastSeq FROM project_sync_state WHERE project_id = ?', { type: QueryTypes.SELECT, replacements: [projectId], transaction: tx });
       const cursor = hasMore ? page[page.length - 1].seq : Math.max(after, Number(state?.lastSeq ?? 0));
-      return { changes, cursor, hasMore };
+      const parts = changes.map((c) => {
+        const entries = raw.get(c);
+        if (!entries) return JSON.stringify(c);
+        const points = entries.map((e) => `${JSON.stringify(e.key)}:${e.text as string}`).join(',');
+        return `{"seq":${c.seq},"kind":"points","id":${JSON.stringify(c.id)},"data":{"points":{${points}}}}`;
+      });
+      return `{"changes":[${parts.join(',')}],"cursor":${cursor},"hasMore":${hasMore}}`;
     });
   }
 }
