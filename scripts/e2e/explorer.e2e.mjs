@@ -122,6 +122,10 @@ export const tests = [
       await page.getByTestId('point-cluster').waitFor({ timeout: 20_000 });
       await page.getByTestId('point-detail').scrollIntoViewIfNeeded();
       await screenshot('explorer-4-point-detail');
+      // Its one-particle bands (a worker of their own): the zigzag's two-site cell gives two bands, no Chern number in 1D.
+      await page.locator('[data-testid="bands-panel"][data-state="done"]').waitFor({ timeout: 20_000 });
+      assert.equal(await page.locator('[data-testid="band-structure"] [data-testid="band-line"]').count(), 2, 'two bands for the two-site cell');
+      await page.getByText('One-dimensional lattice: no Berry curvature and no Chern number.').waitFor();
 
       // 5. Export the map as SVG (font embedded).
       const [download] = await Promise.all([page.waitForEvent('download'), page.getByRole('button', { name: 'Export SVG', exact: true }).click()]);
@@ -132,6 +136,8 @@ export const tests = [
       assert.match(svg, /@font-face\{font-family:'Manrope'/, 'the SVG embeds Manrope');
       assert.match(svg, /src:url\(data:font\/woff2;base64,/, 'the font is a data URL');
       assert.match(svg, /vortex liquid|<rect/, 'the SVG holds the map');
+      assert.doesNotMatch(svg, /var\(--/, 'theme variables are written out as colours in the file');
+      assert.match(svg, /#1d2640/i, 'with the light ink');
       console.log(`     exported SVG: ${svgPath} (${(svg.length / 1024).toFixed(0)} kB)`);
 
       // 6. A 1D ED cut along V (fidelity susceptibility on).
@@ -169,6 +175,61 @@ export const tests = [
       await page.getByTestId('points-table').waitFor();
       await screenshot('explorer-7-after-reload');
       await writeFile(join(screenshotDir, 'explorer-figures.txt'), `initial JS gzipped: ${(gz / 1024).toFixed(1)} kB\nlongest task MF: ${longestMf.toFixed(0)} ms\nlongest task ED: ${longestEd.toFixed(0)} ms\n`);
+    },
+  },
+  {
+    name: 'honeycomb example (conditional second-neighbour hops) → ED cut in t2 → point detail with bands, Berry curvature and Chern numbers; dark theme',
+    async run({ baseUrl, page, screenshot }) {
+      await page.goto(`${baseUrl}/models/new`);
+      await page.getByText('The model is valid.').waitFor();
+      const examples = page.getByLabel('Start from an example');
+      await examples.selectOption({ label: await examples.locator('option', { hasText: 'honeycomb, one particle' }).first().textContent() });
+      await page.getByText('The model is valid.').waitFor();
+      await page.getByRole('button', { name: 'Save model' }).click();
+      await page.waitForURL(/\/models\/[0-9a-f-]{36}$/);
+      await page.getByRole('button', { name: 'Sweep this model →' }).click();
+      await page.getByRole('form', { name: 'Sweep' }).waitFor();
+      await fill(page, '$.name', 'honeycomb t2 cut');
+      await page.selectOption('[data-path="$.axes[0].parameter"]', 't2');
+      await fill(page, '$.axes[0].from', 0);
+      await fill(page, '$.axes[0].to', 0.4);
+      await fill(page, '$.axes[0].points', 3);
+      await page.getByText('3 coarse points').waitFor();
+      await page.getByRole('button', { name: 'Create sweep and start' }).click();
+      await page.waitForURL(/\/sweeps\//);
+      await waitFinished(page);
+
+      // t2 = 0.2, θ = π/2: two bands with Chern numbers ±1 (Haldane, Phys. Rev. Lett. 61, 2015 (1988)).
+      await page.locator('[data-testid="cut-plot"] circle[data-point]').nth(1).click();
+      const panel = page.locator('[data-testid="bands-panel"][data-state="done"]');
+      await panel.waitFor({ timeout: 20_000 });
+      assert.equal(await panel.getByTestId('band-line').count(), 2);
+      const cherns = await panel.locator('[data-testid="chern-numbers"] li').evaluateAll((lis) => lis.map((li) => Number(li.getAttribute('data-chern'))));
+      assert.deepEqual(cherns.map(Math.abs), [1, 1], `Chern numbers ±1, got ${cherns}`);
+      await panel.getByTestId('berry-curvature').waitFor();
+      await panel.scrollIntoViewIfNeeded();
+      await screenshot('explorer-8-bands-panel', panel);
+
+      // t2 = 0 is graphene: the bands touch at K, K′; one group, C = 0.
+      await page.locator('[data-testid="cut-plot"] circle[data-point]').nth(0).click();
+      await page.locator('[data-testid="chern-numbers"] li[data-bands="0 1"]').waitFor({ timeout: 20_000 });
+
+      // Dark theme: the header button, remembered over a reload; plots keep their light-on-dark ink.
+      assert.equal(await page.evaluate(() => document.documentElement.classList.contains('dark')), false, 'the browser prefers light: light by default');
+      await page.getByTestId('theme-toggle').click();
+      assert.equal(await page.evaluate(() => document.documentElement.classList.contains('dark')), true);
+      await page.locator('[data-testid="cut-plot"] circle[data-point]').nth(1).click();
+      await panel.waitFor({ timeout: 20_000 });
+      await screenshot('explorer-9-bands-panel-dark', panel);
+      await screenshot('explorer-10-map-dark');
+      await page.reload();
+      await page.getByTestId('cut-plot').waitFor();
+      assert.equal(await page.evaluate(() => document.documentElement.classList.contains('dark')), true, 'the dark choice survives a reload');
+      await page.goto(`${baseUrl}/models/new`);
+      await page.getByText('The model is valid.').waitFor();
+      await screenshot('explorer-11-model-editor-dark');
+      await page.getByTestId('theme-toggle').click();
+      assert.equal(await page.evaluate(() => document.documentElement.classList.contains('dark')), false);
     },
   },
 ];

@@ -24,7 +24,12 @@ const haldane: ModelSpec = {
   ],
 };
 
-const here = (model: ModelSpec, parameters: Record<string, number>) => Promise.resolve(computeBands(model, parameters));
+/** physics-core's example "honeycomb, one particle: nearest hops and conditional second-neighbour hops". */
+const honeycombExample = Object.values(import.meta.glob('../../../../../physics-core/examples/honeycomb-conditional-nnn.json', { eager: true, import: 'default' }))[0] as ModelSpec;
+
+/** In-thread (the app runs the same function in its bands worker); a 12-mesh keeps the test quick — integers on any mesh. */
+const MESH = 12;
+const here = (model: ModelSpec, parameters: Record<string, number>) => Promise.resolve(computeBands(model, parameters, MESH));
 
 async function renderPanel(model: ModelSpec, parameters: Record<string, number>) {
   render(<BandsPanel model={model} parameters={parameters} compute={here} />);
@@ -34,7 +39,7 @@ async function renderPanel(model: ModelSpec, parameters: Record<string, number>)
 
 const cherns = () => Array.from(screen.getByTestId('chern-numbers').querySelectorAll('li')).map((li) => Number(li.getAttribute('data-chern')));
 
-describe('BandsPanel (one-particle bands of the point model)', () => {
+describe('BandsPanel (one-particle bands of the point model)', { timeout: 20_000 }, () => {
   it('Haldane model, M = 0, φ = π/2: two band lines, Chern numbers ±1 summing to 0, the grid caveat, the dropped interaction', async () => {
     const panel = await renderPanel(haldane, { phi: Math.PI / 2, M: 0 });
     expect(panel.querySelectorAll('[data-testid="band-line"]')).toHaveLength(2);
@@ -42,16 +47,28 @@ describe('BandsPanel (one-particle bands of the point model)', () => {
     expect(c).toHaveLength(2);
     expect(c.map(Math.abs)).toEqual([1, 1]);
     expect(c[0] + c[1]).toBe(0); // a lattice model's Chern numbers sum to zero (invariant)
-    expect(screen.getByTestId('chern-caveat').textContent).toMatch(/24×24 k-grid.*a gap closing makes it ill-defined/);
+    expect(screen.getByTestId('chern-caveat').textContent).toMatch(/12×12 k-grid.*a gap closing makes it ill-defined/);
     expect(screen.getByTestId('bands-warnings').textContent).toMatch(/interaction/);
     expect(screen.getByRole('heading', { name: /One-particle bands of this model \(N = 1\), not of the many-body state/ })).toBeTruthy();
-    // Curvature heatmap: one cell per mesh plaquette (24 × 24), plus the cell outline.
-    expect(screen.getByTestId('berry-curvature').querySelectorAll('polygon')).toHaveLength(24 * 24 + 1);
+    // Curvature heatmap: one cell per mesh plaquette, plus the cell outline.
+    expect(screen.getByTestId('berry-curvature').querySelectorAll('polygon')).toHaveLength(MESH * MESH + 1);
+  });
+
+  it('the honeycomb example (conditional second-neighbour hops, phase turn·θ): two bands, Chern ±1 at θ = π/2 — the Haldane-type check (Haldane, Phys. Rev. Lett. 1988)', async () => {
+    expect(honeycombExample.lattice.kind).toBe('honeycomb');
+    const panel = await renderPanel(honeycombExample, {});
+    expect(panel.querySelectorAll('[data-testid="band-line"]')).toHaveLength(2);
+    expect(cherns().map(Math.abs)).toEqual([1, 1]);
+    expect(screen.queryByTestId('bands-warnings')).toBeNull(); // nothing dropped: no interactions in this example
+    // t2 = 0 is graphene: the bands touch at K and K′ (on any mesh divisible by 3), one group with C = 0.
+    const graphene = computeBands(honeycombExample, { t2: 0 }, MESH);
+    expect(graphene.chern?.groups).toHaveLength(1);
+    expect(graphene.chern?.groups[0]).toMatchObject({ bands: [0, 1], chern: 0 });
   });
 
   it('time reversal φ → −φ flips the lowest Chern number; M beyond 3√3 t2 |sin φ| makes it 0 (Haldane 1988)', async () => {
-    const c = computeBands(haldane, { phi: Math.PI / 2, M: 0 }).chern?.groups.map((g) => g.chern);
-    const reversed = computeBands(haldane, { phi: -Math.PI / 2, M: 0 }).chern?.groups.map((g) => g.chern);
+    const c = computeBands(haldane, { phi: Math.PI / 2, M: 0 }, MESH).chern?.groups.map((g) => g.chern);
+    const reversed = computeBands(haldane, { phi: -Math.PI / 2, M: 0 }, MESH).chern?.groups.map((g) => g.chern);
     expect(reversed).toEqual(c?.map((x) => -x));
     const boundary = 3 * Math.sqrt(3) * 0.1;
     await renderPanel(haldane, { phi: Math.PI / 2, M: 1.3 * boundary });
@@ -59,7 +76,7 @@ describe('BandsPanel (one-particle bands of the point model)', () => {
   });
 
   it('the Berry curvature integrates to 2π C over the reciprocal cell (FHS field strengths sum exactly)', () => {
-    const v = computeBands(haldane, { phi: 1.0, M: 0.1 });
+    const v = computeBands(haldane, { phi: 1.0, M: 0.1 }, MESH);
     const cv = v.curvature;
     expect(cv).not.toBeNull();
     if (!cv) return;

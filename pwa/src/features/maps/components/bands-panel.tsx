@@ -14,7 +14,7 @@ import { forwardRef, useEffect, useRef, useState } from 'react';
 import { Button } from '../../../components/ui/button.js';
 import { bandNames, signed, SMALL_GAP, type BandsView } from '../lib/bands.js';
 import { exportPng, exportSvg } from '../lib/export-figure.js';
-import { PLOT } from '../lib/plot-colors.js';
+import { diverging, PLOT } from '../lib/plot-colors.js';
 import type { BandsComputer } from '../workers/bands-client.js';
 
 const FONT = 'Manrope, sans-serif';
@@ -22,8 +22,8 @@ const tickLabel = { fontSize: 10, fill: PLOT.ink, fontFamily: FONT };
 const axisLabel = { fontSize: 12, fill: PLOT.ink, textAnchor: 'middle' as const, fontFamily: FONT };
 
 /** Band lines: the lowest group (whose curvature is drawn) in the accent, the others in ink. */
-export const BandStructurePlot = forwardRef<SVGSVGElement, { view: BandsView; title: string; width?: number }>(function BandStructurePlot({ view, title, width = 460 }, ref) {
-  const height = 260;
+export const BandStructurePlot = forwardRef<SVGSVGElement, { view: BandsView; title: string; width?: number }>(function BandStructurePlot({ view, title, width = 620 }, ref) {
+  const height = 300;
   const m = { top: 28, right: 14, bottom: 30, left: 56 };
   const iw = width - m.left - m.right;
   const ih = height - m.top - m.bottom;
@@ -64,13 +64,6 @@ export const BandStructurePlot = forwardRef<SVGSVGElement, { view: BandsView; ti
   );
 });
 
-function curvatureColor(v: number, max: number): string {
-  // Diverging, as the plaquette flux of the cluster: blue negative … transparent 0 … vermillion positive (Okabe–Ito).
-  const t = max > 0 ? Math.max(-1, Math.min(1, v / max)) : 0;
-  const a = (Math.abs(t) * 0.9).toFixed(3);
-  return t >= 0 ? `rgb(213 94 0 / ${a})` : `rgb(0 114 178 / ${a})`;
-}
-
 /** Ω(k) of the lowest band group on the mesh plaquettes, drawn as parallelograms in Cartesian k. */
 export const BerryCurvatureMap = forwardRef<SVGSVGElement, { curvature: NonNullable<BandsView['curvature']>; title: string }>(function BerryCurvatureMap({ curvature, title }, ref) {
   const { mesh: N, values, reciprocal: [g1, g2] } = curvature;
@@ -99,7 +92,7 @@ export const BerryCurvatureMap = forwardRef<SVGSVGElement, { curvature: NonNulla
         const i = Math.floor(idx / N);
         const j = idx % N;
         return (
-          <polygon key={idx} points={[kAt(i, j), kAt(i + 1, j), kAt(i + 1, j + 1), kAt(i, j + 1)].map(P).join(' ')} fill={curvatureColor(v, max)} stroke={curvatureColor(v, max)} strokeWidth={0.4}>
+          <polygon key={idx} points={[kAt(i, j), kAt(i + 1, j), kAt(i + 1, j + 1), kAt(i, j + 1)].map(P).join(' ')} {...diverging(v, max, 0.9)} shapeRendering="crispEdges">
             <title>{`Ω = ${v.toPrecision(4)}`}</title>
           </polygon>
         );

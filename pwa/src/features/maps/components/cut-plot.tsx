@@ -52,6 +52,9 @@ export const CutPlot = forwardRef<SVGSVGElement, Props>(function CutPlot({ sweep
         {title}
       </text>
       <Group left={M.left} top={M.top}>
+        {/* Axes first: the points at the ends of the range stay clickable above them. */}
+        <AxisBottom top={ih} scale={x} numTicks={6} stroke={INK} tickStroke={INK} label={a.parameter} labelProps={{ fontSize: 12, fill: INK, textAnchor: 'middle', fontFamily: 'Manrope, sans-serif' }} tickLabelProps={{ fontSize: 10, fill: INK, fontFamily: 'Manrope, sans-serif' }} />
+        <AxisLeft scale={y} numTicks={5} stroke={INK} tickStroke={INK} label={observable} labelOffset={56} labelProps={{ fontSize: 12, fill: INK, textAnchor: 'middle', fontFamily: 'Manrope, sans-serif' }} tickLabelProps={{ fontSize: 10, fill: INK, fontFamily: 'Manrope, sans-serif' }} />
         <LinePath data={pts} x={(p) => x(p.xv) ?? 0} y={(p) => y(p.yv) ?? 0} stroke={INK} strokeWidth={1.5} />
         <g data-testid="cut-measured" data-count={meas.length}>
           {meas.map((m) => {
@@ -89,8 +92,6 @@ export const CutPlot = forwardRef<SVGSVGElement, Props>(function CutPlot({ sweep
             <title>{`${p.c.key}: ${p.yv.toPrecision(6)}${p.c.point.convergence.converged ? '' : ' (not converged)'}`}</title>
           </circle>
         ))}
-        <AxisBottom top={ih} scale={x} numTicks={6} stroke={INK} tickStroke={INK} label={a.parameter} labelProps={{ fontSize: 12, fill: INK, textAnchor: 'middle', fontFamily: 'Manrope, sans-serif' }} tickLabelProps={{ fontSize: 10, fill: INK, fontFamily: 'Manrope, sans-serif' }} />
-        <AxisLeft scale={y} numTicks={5} stroke={INK} tickStroke={INK} label={observable} labelOffset={56} labelProps={{ fontSize: 12, fill: INK, textAnchor: 'middle', fontFamily: 'Manrope, sans-serif' }} tickLabelProps={{ fontSize: 10, fill: INK, fontFamily: 'Manrope, sans-serif' }} />
       </Group>
     </svg>
   );

@@ -6,7 +6,7 @@
  * the same parameters (bands-panel.tsx).
  */
 import type { MapPoint, ModelSpec, Result } from '@phasewright/physics-core';
-import { PLOT } from '../lib/plot-colors.js';
+import { diverging, PLOT } from '../lib/plot-colors.js';
 import type { BandsComputer } from '../workers/bands-client.js';
 import { BandsPanel } from './bands-panel.js';
 
@@ -20,13 +20,6 @@ interface Props {
   labelName: string | undefined;
   /** The point's model and the way to compute its one-particle bands; no bands panel without them. */
   bands?: { model: ModelSpec; compute: BandsComputer; fileBase?: string };
-}
-
-function fluxColor(flux: number): string {
-  // Diverging: blue (−π) … paper (0) … vermillion (+π), Okabe–Ito end colours.
-  const t = Math.max(-1, Math.min(1, flux / Math.PI));
-  const a = Math.abs(t) * 0.75;
-  return t >= 0 ? `rgb(213 94 0 / ${a.toFixed(3)})` : `rgb(0 114 178 / ${a.toFixed(3)})`;
 }
 
 export function ClusterResult({ result, width = 520, height = 240 }: { result: Result; width?: number; height?: number }) {
@@ -51,7 +44,7 @@ export function ClusterResult({ result, width = 520, height = 240 }: { result: R
     <svg viewBox={`0 0 ${width} ${height}`} width="100%" role="img" aria-label="Cluster: densities, currents and fluxes" data-testid="point-cluster" data-ink-aware="" className="block rounded-lg bg-surface ring-1 ring-line">
       {result.plaquettes.map((p, i) => {
         if (p.sites.some((s) => dist({ from: s, to: p.sites[0] }) > 2.5 * shortest)) return null;
-        return <polygon key={`p${i}`} points={p.sites.map((s) => `${P(s).x},${P(s).y}`).join(' ')} fill={fluxColor(p.flux)} stroke="none"><title>{`flux ${p.flux.toFixed(3)} rad, circulation ${p.circulation.toPrecision(3)}`}</title></polygon>;
+        return <polygon key={`p${i}`} points={p.sites.map((s) => `${P(s).x},${P(s).y}`).join(' ')} {...diverging(p.flux, Math.PI, 0.75)} stroke="none"><title>{`flux ${p.flux.toFixed(3)} rad, circulation ${p.circulation.toPrecision(3)}`}</title></polygon>;
       })}
       {inside.map((b, i) => {
         const a = P(b.from);

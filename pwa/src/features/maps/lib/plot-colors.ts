@@ -12,7 +12,16 @@ export const PLOT = {
   paper: 'var(--color-paper)',
   /** Points drawn from an upload (measured data). */
   measured: 'var(--color-measured)',
+  /** Diverging scales: draw with fill-opacity ∝ |value| so zero is the ground. */
+  negative: 'var(--color-diverge-neg)',
+  positive: 'var(--color-diverge-pos)',
 } as const;
+
+/** Colour and opacity of a signed value on the diverging scale, |value| ≥ `max` fully saturated at `strongest`. */
+export function diverging(value: number, max: number, strongest = 0.85): { fill: string; fillOpacity: number } {
+  const t = max > 0 ? Math.max(-1, Math.min(1, value / max)) : 0;
+  return { fill: t >= 0 ? PLOT.positive : PLOT.negative, fillOpacity: +(Math.abs(t) * strongest).toFixed(3) };
+}
 
 /** `--color-*` values of the first `@theme { … }` block of a stylesheet (the light theme). */
 export function themeColors(css: string): Record<string, string> {
