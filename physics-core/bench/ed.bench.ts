@@ -3,9 +3,11 @@
  * zigzag strip, half filling, plain hops between the legs (`zig`), conditional hops along the
  * legs through the opposite site with phase turn·θ, nearest interactions, periodic.
  *
- *   npm run bench:ed [-- --sizes 16,20,24] [-- --compare]   (sizes count SITES; the cell holds two)
+ *   npm run bench:ed [-- --sizes 16,20,24] [-- --full] [-- --compare]   (sizes count SITES; the cell holds two)
  *
- * --compare also times CSR against matrix-free products (and is skipped above 20 sites).
+ * By default the solver's momentum sectors are used (the model is translation invariant);
+ * --full also solves every size on the full fixed-number basis, after the sector runs;
+ * --compare (with --full) also times CSR against matrix-free products (skipped above 20 sites).
  */
 import { compileModel } from '../src/model/compile.js';
 import type { ModelSpec } from '../src/model/types.js';
@@ -55,48 +57,74 @@ console.log(
   `node ${process.version}; one thread; load average ${(await import('node:os')).loadavg().map((x) => x.toFixed(1)).join(' ')}; ` +
     `reference sum of 2^21 doubles ${calibrationMs().toFixed(2)} ms (a fixed workload: compare runs by it; larger means other processes slowed this run)`,
 );
-for (const L of sizes) {
-  if (!Number.isInteger(L) || L % 2 !== 0 || L < 4) throw new Error(`--sizes: ${L} is not an even number of sites ≥ 4`);
+const full = process.argv.includes('--full');
+
+function run(L: number, symmetry: 'auto' | 'none'): void {
   const model = compileModel(spec(L));
   const est = estimateOperator(model);
   const t0 = performance.now();
   const cpu0 = process.cpuUsage();
-  const solver = new EdSolver({ states: 2 });
+  const solver = new EdSolver({ states: 2, symmetry });
   const { result, operator } = solver.solve(model);
   const total = performance.now() - t0;
   const cpu = process.cpuUsage(cpu0);
   const cpuMs = (cpu.user + cpu.system) / 1000;
-  const extras = result.extras as { timing: { operatorMs: number; lanczosMs: number; observablesMs: number }; restarts: number; verificationIterations: number; eigenFallbacks: number; secondPassIterations: number };
-  const x = new Float64Array(2 * operator.dimension).fill(0.5);
-  const y = new Float64Array(2 * operator.dimension);
-  operator.matvec(x, y);
-  const reps = L >= 24 ? 3 : 10;
-  let t = performance.now();
-  for (let r = 0; r < reps; r++) operator.matvec(x, y);
-  const matvec = (performance.now() - t) / reps;
+  const extras = result.extras as {
+    timing: { operatorMs: number; lanczosMs: number; observablesMs: number };
+    verificationIterations: number;
+    eigenFallbacks: number;
+    secondPassIterations: number;
+    storage: string;
+    operatorBytes: number;
+    symmetry: { kind: string; groundMomentum?: string[]; sectorRuns?: { momentum: number[]; dimension: number; iterations: number; abandoned: boolean }[] };
+  };
   const groundMs = extras.timing.operatorMs + extras.timing.lanczosMs;
-  console.log(
-    [
-      `L=${L}`,
-      `dim=${operator.dimension}`,
-      `nnz=${est.nnz}`,
-      `storage=${operator.storage} (${mb(operator.bytes)})`,
-      `build=${ms(extras.timing.operatorMs)}`,
-      `matvec=${matvec.toFixed(1)} ms (${((matvec * 1e6) / est.nnz).toFixed(2)} ns per off-diagonal nonzero, ${((est.nnz + operator.dimension) / (matvec / 1000) / 1e6).toFixed(0)} M nonzeros/s)`,
-      `lanczos=${ms(extras.timing.lanczosMs)} (${result.convergence.iterations} H·x: ${extras.verificationIterations} in the degeneracy check, ${extras.secondPassIterations} recomputing vectors that did not fit; ${extras.eigenFallbacks} fallbacks, residual ${result.convergence.residual.toExponential(1)}, converged ${result.convergence.converged})`,
-      `ground state (build+Lanczos)=${ms(groundMs)}`,
-      `observables=${ms(extras.timing.observablesMs)}`,
-      `total=${ms(total)} wall, ${ms(cpuMs)} CPU (wall exceeds CPU when other processes share the cores)`,
-      `E0=${result.energy.toFixed(10)} gap=${result.gap?.toFixed(6)}`,
-      `peak RSS=${mb(process.resourceUsage().maxRSS * 1024)}`,
-    ].join('\n  '),
-  );
-  if (compare && L <= 20) {
-    const free = new EdOperator(model, { storage: 'matrix-free' });
-    free.matvec(x, y);
-    t = performance.now();
-    for (let r = 0; r < reps; r++) free.matvec(x, y);
-    const mf = (performance.now() - t) / reps;
-    console.log(`  matrix-free matvec=${mf.toFixed(1)} ms vs CSR ${matvec.toFixed(1)} ms (operator ${mb(free.bytes)} vs ${mb(operator.bytes)})`);
+  const lines = [
+    `L=${L} (${symmetry === 'auto' ? 'momentum sectors when translation invariant' : 'full basis'})`,
+    `dim=${est.dimension}`,
+    `nnz=${est.nnz}`,
+    `storage=${extras.storage} (${mb(extras.operatorBytes)})`,
+    `build=${ms(extras.timing.operatorMs)}`,
+  ];
+  if (operator) {
+    const x = new Float64Array(2 * operator.dimension).fill(0.5);
+    const y = new Float64Array(2 * operator.dimension);
+    operator.matvec(x, y);
+    const reps = L >= 24 ? 3 : 10;
+    const t = performance.now();
+    for (let r = 0; r < reps; r++) operator.matvec(x, y);
+    const matvec = (performance.now() - t) / reps;
+    lines.push(`matvec=${matvec.toFixed(1)} ms (${((matvec * 1e6) / est.nnz).toFixed(2)} ns per off-diagonal nonzero, ${((est.nnz + operator.dimension) / (matvec / 1000) / 1e6).toFixed(0)} M nonzeros/s)`);
+    if (compare && L <= 20) {
+      const free = new EdOperator(model, { storage: 'matrix-free' });
+      free.matvec(x, y);
+      const t2 = performance.now();
+      for (let r = 0; r < reps; r++) free.matvec(x, y);
+      const mf = (performance.now() - t2) / reps;
+      lines.push(`matrix-free matvec=${mf.toFixed(1)} ms vs CSR ${matvec.toFixed(1)} ms (operator ${mb(free.bytes)} vs ${mb(operator.bytes)})`);
+    }
   }
+  const runs = extras.symmetry.sectorRuns;
+  if (runs) {
+    lines.push(
+      `sectors=${runs.length}: ` +
+        runs.map((r) => `k=${r.momentum.join(',')} dim ${r.dimension} ${r.iterations} H·x${r.abandoned ? ' (abandoned)' : ''}`).join('; '),
+    );
+  }
+  lines.push(
+    `lanczos=${ms(extras.timing.lanczosMs)} (${result.convergence.iterations} H·x${runs ? ' on sector blocks' : ''}: ${extras.verificationIterations} in the degeneracy check, ${extras.secondPassIterations} recomputing vectors that did not fit; ${extras.eigenFallbacks} fallbacks, residual ${result.convergence.residual.toExponential(1)}, converged ${result.convergence.converged})`,
+    `ground state (build+Lanczos)=${ms(groundMs)}`,
+    `observables=${ms(extras.timing.observablesMs)}`,
+    `total=${ms(total)} wall, ${ms(cpuMs)} CPU (wall exceeds CPU when other processes share the cores)`,
+    `E0=${result.energy.toFixed(10)} gap=${result.gap?.toFixed(6)}${extras.symmetry.groundMomentum ? ` ground momentum k·L/2π=${extras.symmetry.groundMomentum.join(',')}` : ''}`,
+    `peak RSS so far=${mb(process.resourceUsage().maxRSS * 1024)}`,
+  );
+  console.log(lines.join('\n  '));
 }
+
+for (const L of sizes) {
+  if (!Number.isInteger(L) || L % 2 !== 0 || L < 4) throw new Error(`--sizes: ${L} is not an even number of sites ≥ 4`);
+  run(L, 'auto');
+}
+// The full basis afterwards (its larger peak memory would otherwise hide the sectors' figure).
+if (full) for (const L of sizes) run(L, 'none');

@@ -17,6 +17,11 @@ import { condensateFraction, momentumDistribution, oneBodyDensityMatrix } from '
 import { bondCurrents } from '../observables/currents.js';
 import { plaquetteObservables } from '../observables/plaquettes.js';
 import { classifyPoint } from '../classify/phases.js';
+import { compileDiagonalTerms, compileDirectedMoves, fillCoefficients, structureKey } from '../operators/directed-terms.js';
+import { buildFixedNumberBasis, type FixedNumberBasis } from '../hilbert/fixed-number-basis.js';
+import { fillDiagonalSplit } from '../operators/matrix-free.js';
+import { buildOrbitStructure, estimateOrbitBytes, translationGroup, type OrbitStructure } from '../symmetry/translation-sectors.js';
+import { solveBySectors, type SectorSummary } from './sector-solve.js';
 
 export type EdObservable = 'densities' | 'structure-factor' | 'one-body' | 'currents' | 'plaquettes';
 export const ED_OBSERVABLES: readonly EdObservable[] = ['densities', 'structure-factor', 'one-body', 'currents', 'plaquettes'];
@@ -44,6 +49,12 @@ export interface EdOptions {
   observables?: readonly EdObservable[];
   /** After convergence, look for missed degenerate copies with a deflated second run (eigen/lowest-eigenpairs.ts). @default true */
   verifyDegeneracy?: boolean;
+  /**
+   * 'auto': when H is invariant under the lattice translations of the periodic axes (checked
+   * term by term), solve it in momentum sectors (symmetry/translation-sectors.ts) — a start
+   * vector is then not used; 'none': always the full fixed-number basis. @default 'auto'
+   */
+  symmetry?: 'auto' | 'none';
 }
 
 export type ResolvedEdOptions = Required<Omit<EdOptions, 'startVector' | 'windowSize'>> & {
@@ -72,7 +83,14 @@ export function checkEdOptions(options: EdOptions = {}): ResolvedEdOptions {
     degeneracyTolerance,
     observables,
     verifyDegeneracy: options.verifyDegeneracy ?? true,
+    symmetry: checkSymmetry(options.symmetry),
   };
+}
+
+function checkSymmetry(value: EdOptions['symmetry']): 'auto' | 'none' {
+  const v = value ?? 'auto';
+  if (v !== 'auto' && v !== 'none') throw new RangeError(`symmetry must be 'auto' or 'none', got ${String(v)}`);
+  return v;
 }
 
 /** A solved point with the eigenvectors, for warm starts and fidelities. */
@@ -82,7 +100,39 @@ export interface EdSolution {
   vectors: Float64Array[];
   /** The ground manifold the observables were averaged over. */
   manifold: StateManifold;
-  operator: EdOperator;
+  /** The full-basis operator (absent when the point was solved in momentum sectors). */
+  operator?: EdOperator;
+}
+
+/** What the eigen-solve produced, on either path. */
+interface Eigen {
+  values: number[];
+  vectors: Float64Array[];
+  converged: boolean;
+  iterations: number;
+  residual: number;
+  residuals: number[];
+  restarts: number;
+  verificationIterations: number;
+  recovered: number;
+  fallbacks: number;
+  secondPassIterations: number;
+  basis: FixedNumberBasis;
+  nnz: number;
+  storage: string;
+  operatorBytes: number;
+  rebuilt: boolean;
+  operatorMs: number;
+  warmStart: boolean;
+  lanczosMs: number;
+  symmetry: Record<string, unknown>;
+}
+
+/** Cached per structure: sectors re-weight by refilling the table and the diagonal. */
+interface SectorCache {
+  structure: string;
+  orbits: OrbitStructure;
+  nnz: number;
 }
 
 /**
@@ -92,6 +142,8 @@ export interface EdSolution {
  */
 export class EdSolver {
   private operator: EdOperator | null = null;
+  private sectors: SectorCache | null = null;
+  private symmetryReason: string | null = null;
   private previous: Float64Array | null = null;
   private readonly options: ResolvedEdOptions;
 
@@ -102,7 +154,6 @@ export class EdSolver {
 
   solve(model: CompiledModel): EdSolution {
     const o = this.options;
-    const buildStart = now();
     const dimension = binomialDimension(model);
     // A Hilbert space smaller than the requested number of states (e.g. N = 0) gives all its states.
     const states = Math.min(o.states, dimension);
@@ -114,32 +165,10 @@ export class EdSolver {
       seed: o.seed,
       startVector: o.startVector,
     });
-    // Memory check before anything is allocated.
-    const reserved = estimateLanczosBytes(dimension, lanczosOptions.windowSize, states);
-    const operatorOptions = { storage: o.storage, memoryBudgetBytes: o.memoryBudgetBytes, reservedBytes: reserved };
-    const estimate = estimateOperator(model);
-    const storage = chooseStorage(estimate, checkEdOperatorOptions(operatorOptions));
-    // What the budget leaves after the operator and the vectors that exist beside the kept Lanczos
-    // vectors (the recurrence's three, the `states` Ritz vectors being summed, one spare) may
-    // hold Lanczos vectors instead of recomputing them (plain-lanczos.ts releases them before
-    // its Rayleigh–Ritz step and the degeneracy check keeps none).
-    const operatorBytes = storage === 'csr' ? estimate.totalCsrBytes : estimate.totalMatrixFreeBytes;
-    const vectorStoreBytes = Math.max(0, o.memoryBudgetBytes - operatorBytes - 16 * dimension * (states + 4));
-    let rebuilt = true;
-    if (this.operator) rebuilt = this.operator.update(model) === 'rebuilt';
-    else this.operator = new EdOperator(model, operatorOptions);
-    const op = this.operator;
-    const buildMs = now() - buildStart;
-
-    const solveStart = now();
-    const start = o.startVector ?? (this.warmStart && !rebuilt && this.previous ? this.previous : undefined);
-    const eig = lowestEigenpairs((x, y) => op.matvec(x, y), op.dimension, {
-      ...lanczosOptions,
-      startVector: start,
-      verifyDegeneracy: o.verifyDegeneracy,
-      vectorStoreBytes,
-    });
-    const lanczosMs = now() - solveStart;
+    const eig = this.solveSectors(model, states, lanczosOptions.windowSize) ?? this.solveFull(model, states, lanczosOptions);
+    const buildMs = eig.operatorMs;
+    const solveStart = now() - eig.lanczosMs;
+    const { rebuilt, lanczosMs } = eig;
     const energies = eig.values;
     const e0 = energies[0];
     const degTol = o.degeneracyTolerance * Math.max(1, Math.abs(e0));
@@ -159,8 +188,7 @@ export class EdSolver {
     if (g === energies.length && energies.length < dimension) {
       warnings.push(`all ${g} computed states are degenerate; the ground manifold may be larger — raise states`);
     }
-    const manifold: StateManifold = { basis: op.basis, vectors: eig.vectors.slice(0, g) };
-    this.previous = eig.vectors[0];
+    const manifold: StateManifold = { basis: eig.basis, vectors: eig.vectors.slice(0, g) };
 
     const obsStart = now();
     const want = new Set(o.observables);
@@ -196,11 +224,12 @@ export class EdSolver {
       if (p.fluxUndefined.length) extras.fluxUndefined = p.fluxUndefined;
     }
     const observablesMs = now() - obsStart;
-    extras.dimension = op.dimension;
-    extras.nnz = op.nnz;
-    extras.storage = op.storage;
-    extras.operatorBytes = op.bytes;
+    extras.dimension = dimension;
+    extras.nnz = eig.nnz;
+    extras.storage = eig.storage;
+    extras.operatorBytes = eig.operatorBytes;
     extras.operatorRebuilt = rebuilt;
+    extras.symmetry = eig.symmetry;
     extras.groundDegeneracy = g;
     extras.residuals = eig.residuals;
     extras.restarts = eig.restarts;
@@ -208,7 +237,7 @@ export class EdSolver {
     extras.recoveredStates = eig.recovered;
     extras.eigenFallbacks = eig.fallbacks;
     extras.secondPassIterations = eig.secondPassIterations;
-    extras.timing = { operatorMs: op.buildMs, lanczosMs, observablesMs };
+    extras.timing = { operatorMs: eig.operatorMs, lanczosMs, observablesMs };
 
     const result: Result = {
       spec: RESULT_SPEC_ID,
@@ -234,9 +263,10 @@ export class EdSolver {
           maxIterations: o.maxIterations,
           windowSize: lanczosOptions.windowSize,
           seed: o.seed,
-          warmStart: start !== undefined,
+          warmStart: eig.warmStart,
           degeneracyTolerance: o.degeneracyTolerance,
           verifyDegeneracy: o.verifyDegeneracy,
+          symmetry: o.symmetry,
         },
       },
       extras,
@@ -244,7 +274,158 @@ export class EdSolver {
     };
     // Same classifier as mean-field points, with its ED thresholds (S(q), condensate fraction, currents, chirality).
     result.label = classifyPoint(result).label;
-    return { result, vectors: eig.vectors, manifold, operator: op };
+    return { result, vectors: eig.vectors, manifold, ...(this.operator && eig.storage !== 'momentum-sectors' ? { operator: this.operator } : {}) };
+  }
+
+  /** Full fixed-number basis: one operator (CSR or matrix-free), warm starts honoured. */
+  private solveFull(model: CompiledModel, states: number, lanczosOptions: ReturnType<typeof checkLanczosOptions>): Eigen {
+    const o = this.options;
+    const dimension = binomialDimension(model);
+    // Memory check before anything is allocated.
+    const reserved = estimateLanczosBytes(dimension, lanczosOptions.windowSize, states);
+    const operatorOptions = { storage: o.storage, memoryBudgetBytes: o.memoryBudgetBytes, reservedBytes: reserved };
+    const estimate = estimateOperator(model);
+    const storage = chooseStorage(estimate, checkEdOperatorOptions(operatorOptions));
+    // What the budget leaves after the operator and the vectors that exist beside the kept Lanczos
+    // vectors (the recurrence's three, the `states` Ritz vectors being summed, one spare) may
+    // hold Lanczos vectors instead of recomputing them (plain-lanczos.ts releases them before
+    // its Rayleigh–Ritz step and the degeneracy check keeps none).
+    const operatorBytes = storage === 'csr' ? estimate.totalCsrBytes : estimate.totalMatrixFreeBytes;
+    const vectorStoreBytes = Math.max(0, o.memoryBudgetBytes - operatorBytes - 16 * dimension * (states + 4));
+    let rebuilt = true;
+    if (this.operator) rebuilt = this.operator.update(model) === 'rebuilt';
+    else this.operator = new EdOperator(model, operatorOptions);
+    const op = this.operator;
+
+    const solveStart = now();
+    const start = o.startVector ?? (this.warmStart && !rebuilt && this.previous ? this.previous : undefined);
+    const eig = lowestEigenpairs((x, y) => op.matvec(x, y), op.dimension, {
+      ...lanczosOptions,
+      startVector: start,
+      verifyDegeneracy: o.verifyDegeneracy,
+      vectorStoreBytes,
+    });
+    this.previous = eig.vectors[0] ?? null;
+    return {
+      ...eig,
+      basis: op.basis,
+      nnz: op.nnz,
+      storage: op.storage,
+      operatorBytes: op.bytes,
+      rebuilt,
+      operatorMs: op.buildMs,
+      warmStart: start !== undefined,
+      lanczosMs: now() - solveStart,
+      symmetry: { kind: 'none', reason: this.symmetryReason ?? 'not requested (symmetry: none)' },
+    };
+  }
+
+  /**
+   * Momentum sectors when the model is translation invariant and `symmetry` allows; null
+   * otherwise (the reason is kept for the result's extras).
+   */
+  private solveSectors(model: CompiledModel, states: number, windowSize: number): Eigen | null {
+    const o = this.options;
+    this.symmetryReason = null;
+    if (o.symmetry === 'none') return null;
+    const buildStart = now();
+    const moves = compileDirectedMoves(model);
+    const table = new Float64Array(2 * moves.coefficientCount);
+    fillCoefficients(model, table);
+    const diagonalTerms = compileDiagonalTerms(model);
+    const check = translationGroup(model, moves, table, diagonalTerms);
+    if (!check.group) {
+      this.symmetryReason = check.reason;
+      return null;
+    }
+    if (check.group.order < 2) {
+      this.symmetryReason = 'a single cell along the periodic axes';
+      return null;
+    }
+    const structure = structureKey(model);
+    let rebuilt = false;
+    if (!this.sectors || this.sectors.structure !== structure) {
+      // Memory check before anything is allocated: basis, diagonal, orbit tables, two sector
+      // blocks (the one being solved and one kept) and the sector's Lanczos vectors.
+      const estimate = estimateOperator(model);
+      const order = check.group.order;
+      const sectorDim = Math.ceil(estimate.dimension / order);
+      const needed =
+        estimate.basisBytes +
+        estimate.diagonalBytes +
+        estimateOrbitBytes(estimate.dimension, estimate.nnz, order) +
+        2 * (Math.ceil(estimate.nnz / order) * 20 + 12 * sectorDim) +
+        estimateLanczosBytes(sectorDim, windowSize, states) +
+        16 * estimate.dimension * (states + 1);
+      if (needed > o.memoryBudgetBytes) {
+        this.symmetryReason = `momentum sectors need about ${Math.round(needed / 2 ** 20)} MiB, above the memory budget`;
+        return null;
+      }
+      const basis = buildFixedNumberBasis(model.nSites, model.nParticles);
+      this.sectors = { structure, orbits: buildOrbitStructure(check.group, basis, moves), nnz: estimate.nnz };
+      rebuilt = true;
+    }
+    const { orbits, nnz } = this.sectors;
+    const diagonal = new Float64Array(orbits.basis.dimension);
+    fillDiagonalSplit(orbits.basis, diagonalTerms, diagonal);
+    const orbitMs = now() - buildStart;
+    // Sector vectors are small: keep every Lanczos vector the budget allows.
+    const sectorDim = Math.ceil(orbits.basis.dimension / check.group.order);
+    const vectorStoreBytes = Math.max(16 * sectorDim * 2, o.memoryBudgetBytes / 4);
+    const solveStart = now();
+    const r = solveBySectors(orbits, table, diagonal, {
+      states,
+      tolerance: o.tolerance,
+      maxIterations: o.maxIterations,
+      seed: o.seed,
+      windowSize: o.windowSize,
+      verifyDegeneracy: o.verifyDegeneracy,
+      vectorStoreBytes,
+      degeneracyWindow: (e) => o.degeneracyTolerance * Math.max(1, Math.abs(e)),
+    });
+    const lanczosMs = now() - solveStart - r.sectorBuildMs;
+    this.previous = null;
+    const lengths = check.group.lengths;
+    const symmetry: Record<string, unknown> = {
+      kind: 'translations',
+      axes: check.group.axes,
+      lengths,
+      sectors: r.sectors.length,
+      momenta: r.momenta,
+      groundMomentum: r.momenta[0]?.map((m, a) => `${m}/${lengths[a]}`),
+      sectorRuns: r.sectors.map((s: SectorSummary) => ({ ...s })),
+      ...(o.startVector ? { note: 'the given start vector is not used in momentum sectors' } : {}),
+    };
+    return {
+      values: r.values,
+      vectors: r.vectors,
+      converged: r.converged,
+      iterations: r.iterations,
+      residual: r.residual,
+      residuals: r.residuals,
+      restarts: r.restarts,
+      verificationIterations: r.verificationIterations,
+      recovered: r.recovered,
+      fallbacks: r.fallbacks,
+      secondPassIterations: r.secondPassIterations,
+      basis: orbits.basis,
+      nnz,
+      storage: 'momentum-sectors',
+      operatorBytes:
+        orbits.basis.states.byteLength +
+        orbits.reps.byteLength +
+        orbits.stabilizer.byteLength +
+        orbits.rowStart.byteLength +
+        orbits.target.byteLength +
+        orbits.element.byteLength +
+        orbits.coefficient.byteLength +
+        r.largestSectorBytes,
+      rebuilt,
+      operatorMs: orbitMs + r.sectorBuildMs,
+      warmStart: false,
+      lanczosMs,
+      symmetry,
+    };
   }
 }
 

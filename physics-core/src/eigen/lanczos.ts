@@ -77,7 +77,7 @@ export function checkLanczosOptions(
   const windowSize = Math.min(requested, free);
   const seed = options.seed ?? 1;
   if (!Number.isInteger(seed)) throw new RangeError(`seed must be an integer, got ${seed}`);
-  const restartKeep = Math.min(windowSize - 1, options.restartKeep ?? states + Math.floor((windowSize - states) / 4));
+  const restartKeep = Math.min(windowSize - 1, options.restartKeep ?? Math.max(states + 1, states + Math.floor((windowSize - states) / 4)));
   if (!Number.isInteger(restartKeep) || restartKeep < Math.min(states + 1, windowSize - 1)) {
     throw new RangeError(`restartKeep must be an integer in ${states + 1}..${windowSize - 1}, got ${restartKeep}`);
   }

@@ -24,6 +24,8 @@ export interface LowestEigenpairsOptions extends LanczosOptions {
   verifyTolerance?: number;
   /** Bytes for keeping Lanczos vectors instead of recomputing them (see plain-lanczos.ts). @default 256 MiB */
   vectorStoreBytes?: number;
+  /** Stop early when the lowest eigenvalue is clearly above this energy (plain-lanczos.ts `abandonAbove`); the result is then `abandoned`. */
+  abandonAbove?: number;
 }
 
 export interface LowestEigenpairsResult extends LanczosResult {
@@ -35,6 +37,8 @@ export interface LowestEigenpairsResult extends LanczosResult {
   fallbacks: number;
   /** H·x spent recomputing Lanczos vectors that did not fit in `vectorStoreBytes` (included in `iterations`). */
   secondPassIterations: number;
+  /** The run stopped at `abandonAbove`: no vectors, values are unconverged upper bounds. */
+  abandoned: boolean;
 }
 
 export function lowestEigenpairs(
@@ -49,14 +53,17 @@ export function lowestEigenpairs(
   let fallbacks = 0;
   let secondPassIterations = 0;
   /** Plain Lanczos, then thick restart from its lowest vector if it did not converge. */
-  const solve = (o: LanczosOptions, wantVectors = true): LanczosResult => {
+  let abandoned = false;
+  const solve = (o: LanczosOptions, wantVectors = true, abandonAbove?: number): LanczosResult => {
     const first: PlainLanczosResult = plainLanczos(matvec, dimension, {
       ...o,
       vectorStoreBytes: options.vectorStoreBytes,
       wantVectors,
+      abandonAbove,
     });
     secondPassIterations += first.secondPassIterations;
-    if (first.converged || !wantVectors) return first;
+    if (first.abandoned) abandoned = true;
+    if (first.converged || !wantVectors || first.abandoned) return first;
     fallbacks++;
     const rest = lanczos(matvec, dimension, {
       ...o,
@@ -65,12 +72,12 @@ export function lowestEigenpairs(
     });
     return { ...rest, iterations: first.iterations + rest.iterations };
   };
-  const main = solve(options);
+  const main = solve(options, true, options.abandonAbove);
   const k = main.values.length;
   let verificationIterations = 0;
   let recovered = 0;
-  if (!verify || k + (options.locked?.length ?? 0) >= dimension) {
-    return { ...main, verificationIterations, recovered, fallbacks, secondPassIterations };
+  if (abandoned || !verify || k + (options.locked?.length ?? 0) >= dimension) {
+    return { ...main, verificationIterations, recovered, fallbacks, secondPassIterations, abandoned };
   }
   let values = [...main.values];
   let vectors = [...main.vectors];
@@ -124,5 +131,6 @@ export function lowestEigenpairs(
     recovered,
     fallbacks,
     secondPassIterations,
+    abandoned: false,
   };
 }

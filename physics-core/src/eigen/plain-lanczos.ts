@@ -32,6 +32,14 @@ export interface PlainLanczosOptions extends LanczosOptions {
   vectorStoreBytes?: number;
   /** Form eigenvectors; if false only values and Ritz estimates are returned (one pass). @default true */
   wantVectors?: boolean;
+  /**
+   * Give up (result `abandoned`, no vectors) once the lowest Ritz value θ has an estimate ε with
+   * θ − ε above this energy, after at least `ABANDON_MIN_STEPS` steps: the eigenvalue it tracks
+   * lies above it, and the operator is taken to hold nothing lower (used to skip momentum sectors
+   * whose lowest state is above the states already found; the same judgement as any Lanczos run,
+   * which sees an eigenvalue only through the start vector's component along it).
+   */
+  abandonAbove?: number;
 }
 
 export interface PlainLanczosResult extends LanczosResult {
@@ -45,7 +53,12 @@ export interface PlainLanczosResult extends LanczosResult {
   spurious: number;
   /** The Krylov space became invariant (every eigenvalue it contains is exact). */
   invariant: boolean;
+  /** Stopped early by `abandonAbove`. */
+  abandoned: boolean;
 }
+
+/** Fewest steps before `abandonAbove` may stop a run (common practice: let the Krylov space grow past the first few, poorly resolved, Ritz values). */
+export const ABANDON_MIN_STEPS = 20;
 
 export const DEFAULT_VECTOR_STORE_BYTES = 256 * 2 ** 20;
 
@@ -115,6 +128,8 @@ export function plainLanczos(
   let genuine: Genuine[] = [];
   let spurious: number;
   let converged = false;
+  let abandoned = false;
+  const abandonAbove = options.abandonAbove ?? Number.POSITIVE_INFINITY;
 
   for (;;) {
     // Next vector buffer: stored while memory allows, else a ring of three.
@@ -159,6 +174,11 @@ export function plainLanczos(
         break;
       }
       if (iterations >= maxIterations) break;
+      const lowest = genuine[0];
+      if (m >= ABANDON_MIN_STEPS && lowest && lowest.value - lowest.estimate > abandonAbove) {
+        abandoned = true;
+        break;
+      }
     }
     scale(w, 1 / b);
     if (stored.length === m && w !== ring[0] && w !== ring[1] && w !== ring[2]) stored.push(w);
@@ -173,10 +193,11 @@ export function plainLanczos(
     storedVectors: stored.length,
     spurious,
     invariant,
+    abandoned,
     restarts: 0,
     normEstimate,
   };
-  if (!wantVectors || chosen.length === 0) {
+  if (!wantVectors || chosen.length === 0 || abandoned) {
     const residuals = chosen.map((g) => g.estimate / Math.max(normEstimate, Number.MIN_VALUE));
     return {
       ...base,
