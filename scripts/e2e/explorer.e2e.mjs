@@ -207,6 +207,7 @@ export const tests = [
       const cherns = await panel.locator('[data-testid="chern-numbers"] li').evaluateAll((lis) => lis.map((li) => Number(li.getAttribute('data-chern'))));
       assert.deepEqual(cherns.map(Math.abs), [1, 1], `Chern numbers ±1, got ${cherns}`);
       await panel.getByTestId('berry-curvature').waitFor();
+      console.log(`     one-particle bands, Berry curvature and Chern numbers (24×24 mesh) in the bands worker: ${await panel.getAttribute('data-ms')} ms`);
       await panel.scrollIntoViewIfNeeded();
       await screenshot('explorer-8-bands-panel', panel);
 

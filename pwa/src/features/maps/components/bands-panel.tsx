@@ -163,7 +163,7 @@ export function BandsPanel({ model, parameters, compute, fileBase = 'point' }: P
   const current = state?.for === key ? state : null;
   const view = current?.view;
   return (
-    <section className="space-y-2 border-t border-line pt-3" aria-label="One-particle bands" data-testid="bands-panel" data-state={view ? 'done' : current?.error ? 'error' : 'computing'}>
+    <section className="space-y-2 border-t border-line pt-3" aria-label="One-particle bands" data-testid="bands-panel" data-state={view ? 'done' : current?.error ? 'error' : 'computing'} data-ms={view ? view.ms.toFixed(0) : undefined}>
       <h3 className="text-sm font-bold text-ink-900">One-particle bands of this model (N = 1), not of the many-body state</h3>
       <p className="text-xs text-ink-600">
         The same Hamiltonian at this point's parameters with a single particle in the unit cell's Bloch picture: the many-body ground state above need not resemble any of these bands.
