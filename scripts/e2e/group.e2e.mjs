@@ -6,10 +6,16 @@
 //   2. The offline journey: the editor goes offline, creates a model and runs a sweep in the
 //      shared project, reloads while still offline (app and map are there), comes back online and
 //      the map syncs; another member pulls it and sees the same identity, point count and digest.
+//   4. Conflict journey (see the test).
+//   5. A new version while a change is being pushed: the browser reaches the server through a small
+//      proxy of the test that can "deploy" a new service worker (a byte-different sw.js) and hold
+//      pushes; the update prompt says a sync runs, "Reload when synced" waits for the push, then the
+//      page reloads on the new version and nothing waits any more.
 // Every step a person does happens in the page. One step is not a user's: the test's own admin
 // account is made a site admin with SQL (the demo seed has no admin yet), by its unique address.
 import assert from 'node:assert/strict';
 import { randomBytes } from 'node:crypto';
+import http from 'node:http';
 import { launchFreshContext } from './browser.mjs';
 import { rootSql } from '../lib/db.mjs';
 
@@ -118,6 +124,67 @@ async function createProject(page, baseUrl, name) {
 /** Waits until the header's sync badge shows `phase`. */
 async function syncPhase(page, phase, timeout = 20_000) {
   await page.locator(`[data-testid="sync-badge"][data-phase="${phase}"]`).waitFor({ timeout });
+}
+
+/**
+ * A pass-through proxy to the server under test with two switches a test can flip: `deploy()`
+ * serves sw.js with a comment appended (to the browser a new service-worker version, as after a
+ * deployment; conditional headers are dropped so the check cannot answer 304), and `holdPushes()`
+ * keeps sync pushes waiting until the returned function is called.
+ */
+async function startSwitchProxy(baseUrl) {
+  const target = new URL(baseUrl);
+  let deployedAt = null;
+  let hold = null;
+  const server = http.createServer(async (req, res) => {
+    if (hold && req.url.includes('/sync/push')) await hold;
+    const isSw = deployedAt !== null && req.url.split('?')[0] === '/sw.js';
+    const headers = { ...req.headers, host: target.host };
+    if (isSw) {
+      delete headers['if-none-match'];
+      delete headers['if-modified-since'];
+    }
+    const upstream = http.request({ host: target.hostname, port: target.port, path: req.url, method: req.method, headers }, (r) => {
+      if (!isSw) {
+        res.writeHead(r.statusCode ?? 502, r.headers);
+        r.pipe(res);
+        return;
+      }
+      const chunks = [];
+      r.on('data', (c) => chunks.push(c));
+      r.on('end', () => {
+        const body = Buffer.concat([...chunks, Buffer.from(`\n// deployed ${deployedAt}\n`)]);
+        const out = { ...r.headers, 'content-length': String(body.length) };
+        delete out.etag;
+        delete out['last-modified'];
+        res.writeHead(r.statusCode ?? 502, out);
+        res.end(body);
+      });
+    });
+    upstream.on('error', (e) => {
+      res.writeHead(502);
+      res.end(String(e));
+    });
+    req.pipe(upstream);
+  });
+  await new Promise((resolve) => server.listen(0, '127.0.0.1', resolve));
+  return {
+    url: `http://127.0.0.1:${server.address().port}`,
+    deploy: () => {
+      deployedAt = Date.now();
+    },
+    holdPushes: () => {
+      let release;
+      hold = new Promise((resolve) => {
+        release = resolve;
+      });
+      return () => {
+        hold = null;
+        release();
+      };
+    },
+    close: () => new Promise((resolve) => server.close(resolve)),
+  };
 }
 
 export const tests = [
@@ -359,6 +426,69 @@ export const tests = [
         await screenshot('group-11-agreed');
       } finally {
         await other.close();
+      }
+    },
+  },
+  {
+    name: 'a new version while a change is being pushed: the update prompt waits for the sync, then reloads on the new version; nothing is lost',
+    async run({ page, baseUrl, screenshot }) {
+      const proxy = await startSwitchProxy(baseUrl);
+      try {
+        const base = proxy.url;
+        await page.goto(`${base}/sign-in`);
+        await page.locator('[data-path="email"]').fill('otto.vane@example.org');
+        await page.locator('[data-path="password"]').fill('editor-pebble-4821');
+        await page.getByRole('button', { name: 'Sign in' }).click();
+        await page.getByTestId('signed-in-user').filter({ hasText: 'Otto Vane' }).waitFor();
+        // The service worker installs; after one reload it controls the page (as on a second visit).
+        await page.evaluate(() => navigator.serviceWorker.ready.then(() => true));
+        await page.reload();
+        await page.waitForFunction(() => navigator.serviceWorker.controller !== null, null, { timeout: 20_000 });
+        await page.locator('[data-testid="sync-badge"][data-phase="up-to-date"]').waitFor({ timeout: 30_000 });
+
+        // A change: a new model in the demo project; its push is held by the proxy (a slow network).
+        const release = proxy.holdPushes();
+        await page.goto(`${base}/projects`);
+        await page.getByRole('link', { name: 'Demo: kagome strip survey' }).first().click();
+        await page.getByRole('heading', { level: 1, name: 'Demo: kagome strip survey' }).waitFor();
+        await page.getByRole('link', { name: 'New model' }).last().click();
+        await page.getByTestId('model-project').filter({ hasText: 'Demo: kagome strip survey' }).waitFor();
+        await page.getByText('The model is valid.').waitFor();
+        await page.locator('[data-path="$.name"]').fill(`update-check model ${run}`);
+        await page.getByRole('button', { name: 'Save model' }).click();
+        await page.waitForURL(/\/models\/[0-9a-f-]{36}$/);
+        await page.locator('[data-testid="sync-badge"][data-phase="syncing"]').waitFor({ timeout: 15_000 });
+
+        // A new version is deployed; the browser's update check finds it.
+        proxy.deploy();
+        await page.evaluate(async () => (await navigator.serviceWorker.getRegistration())?.update());
+        const prompt = page.getByTestId('update-prompt');
+        await page.locator('[data-testid="update-prompt"][data-kind="busy"]').waitFor({ timeout: 20_000 });
+        assert.match(await prompt.innerText(), /A sync is running \(1 change to push\)/);
+        assert.match(await prompt.innerText(), /Nothing is lost by reloading/);
+        await screenshot('group-12-update-busy');
+
+        await page.evaluate(() => {
+          window.__beforeUpdate = true;
+        });
+        await prompt.getByRole('button', { name: 'Reload when synced' }).click();
+        await page.locator('[data-testid="update-prompt"][data-kind="pending"]').waitFor();
+        await screenshot('group-13-update-pending');
+        // Still the old page while the push is held: the reload waits for the sync.
+        await page.waitForTimeout(1000);
+        assert.equal(await page.evaluate(() => window.__beforeUpdate === true), true, 'no reload while the push is held');
+
+        const reloaded = page.waitForEvent('load', { timeout: 20_000 });
+        release();
+        await reloaded;
+        await page.getByTestId('signed-in-user').waitFor();
+        assert.equal(await page.evaluate(() => window.__beforeUpdate), undefined, 'the page was reloaded');
+        await page.locator('[data-testid="sync-badge"][data-phase="up-to-date"][data-waiting="0"]').waitFor({ timeout: 20_000 });
+        assert.equal(await prompt.count(), 0, 'the new version is active: no prompt after the reload');
+        await page.getByRole('heading', { level: 1, name: `update-check model ${run}` }).waitFor();
+        await screenshot('group-14-updated');
+      } finally {
+        await proxy.close();
       }
     },
   },
