@@ -148,6 +148,13 @@ describe('error shape and static PWA', () => {
         .send(JSON.stringify({ text: 'x'.repeat(4096) }))
         .expect(413);
       expect(Object.keys(res.body).sort()).toEqual(ERROR_FIELDS);
+      // The message names the size, the limit (1kb = 1024 bytes) and the setting that raises it.
+      const size = Buffer.byteLength(JSON.stringify({ text: 'x'.repeat(4096) }));
+      expect(res.body.message).toBe(
+        `The request body is ${size} bytes (${(size / 1024).toFixed(1)} KiB), but it is over the server's limit of 1024 bytes (1.0 KiB) per request, set by PW_BODY_LIMIT: ` +
+          'send less per request (map sync: push the points in several batches) or raise PW_BODY_LIMIT on the server',
+      );
+      expect(res.body.details).toEqual({ type: 'entity.too.large', limit: 1024, bytes: size, setting: 'PW_BODY_LIMIT' });
     } finally {
       await small.close();
     }

@@ -220,7 +220,11 @@ describe('map sync against the private MariaDB', () => {
     await db.sequelize.query(`KILL CONNECTION ${Number(victim)}`);
     await blocker.rollback();
     const failed = await pending;
-    expect(failed.status).toBe(500);
+    // A lost database connection is a 503 that says to retry (not a generic 500).
+    expect(failed.status).toBe(503);
+    expect(failed.body).toMatchObject({ error: 'Service Unavailable', details: { reason: 'database-unavailable' } });
+    expect(failed.body.message).toMatch(/^Database unavailable .*retry/);
+    expect(failed.headers['retry-after']).toBe('5');
     expect(await snapshot()).toBe(before);
     expect(await rows('SELECT id FROM maps WHERE id = ?', [mapId])).toEqual([]);
 
