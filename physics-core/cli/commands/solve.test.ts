@@ -22,6 +22,17 @@ describe('phasewright solve', () => {
     expect(() => parseOverrides(['g=x'])).toThrow(PhasewrightError);
     expect(() => solveCommand(example, { method: 'simplex', set: [] })).toThrow(/--method/);
     expect(() => solveCommand(example, { method: 'ed', set: [], states: '0' })).toThrow(/--states/);
+    expect(() => solveCommand(example, { method: 'ed', set: [], symmetry: 'mirror' })).toThrow(/--symmetry must be 'auto' or 'none'/);
+  });
+
+  it('--symmetry none solves the periodic ring on the full basis, auto in momentum sectors, with the same levels', () => {
+    const auto = JSON.parse(solveCommand(example, { method: 'ed', set: [], states: '2' }));
+    const none = JSON.parse(solveCommand(example, { method: 'ed', set: [], states: '2', symmetry: 'none' }));
+    expect(auto.extras.symmetry.kind).toBe('translations');
+    expect(none.extras.symmetry.kind).toBe('none');
+    expect(auto.energies[0]).toBeCloseTo(none.energies[0], 9);
+    expect(auto.energies[1]).toBeCloseTo(none.energies[1], 9);
+    expect(auto.provenance.solver.symmetry).toBe('auto');
   });
 
   it('mean-field flags reach the solver: a two-site supercell of the V1 = 3 ring finds the density wave', () => {

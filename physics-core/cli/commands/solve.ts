@@ -21,6 +21,7 @@ export interface SolveCommandOptions {
   seed?: string;
   memoryBudget?: string;
   observables?: string;
+  symmetry?: string;
   supercell?: string;
   starts?: string;
   mu?: string;
@@ -62,6 +63,11 @@ export function parseOverrides(sets: string[]): Record<string, number> {
   return overrides;
 }
 
+function symmetryOption(value: string): 'auto' | 'none' {
+  if (value !== 'auto' && value !== 'none') throw new PhasewrightError(`--symmetry must be 'auto' or 'none' (got "${value}")`, 'usage');
+  return value;
+}
+
 export function solveCommand(file: string, opts: SolveCommandOptions): string {
   const spec = inFile(file, () => parseModelSpec(readJsonFile(file)));
   const method = opts.method as Method;
@@ -82,6 +88,7 @@ export function solveCommand(file: string, opts: SolveCommandOptions): string {
       ? { memoryBudgetBytes: number(opts.memoryBudget, '--memory-budget', (x) => x > 0, 'a positive number of bytes') }
       : {}),
     ...(observables ? { observables: observables as EdObservable[] } : {}),
+    ...(opts.symmetry !== undefined ? { symmetry: symmetryOption(opts.symmetry) } : {}),
   };
   const meanfield = {
     ...(opts.supercell !== undefined ? { supercell: parseSupercell(opts.supercell) } : {}),
@@ -106,6 +113,7 @@ export function registerSolve(program: Command): void {
     .option('--seed <n>', 'seed of the Lanczos start vector (ED) or of the random starts (mean-field)')
     .option('--memory-budget <bytes>', 'ED: memory budget in bytes (default 1.5 GiB)')
     .option('--observables <list>', `ED: comma-separated subset of ${ED_OBSERVABLES.join(',')}`)
+    .option('--symmetry <mode>', 'ED: auto (momentum sectors when the model is translation invariant) or none (full basis)')
     .option('--supercell <cells>', 'mean-field: supercell as 2x1, 2,2, sqrt3 or a JSON list of integer vectors')
     .option('--starts <n>', 'mean-field: number of starts (default 8)')
     .option('--mu <x>', 'mean-field: fixed chemical potential instead of the filling')

@@ -126,6 +126,8 @@ interface Eigen {
   warmStart: boolean;
   lanczosMs: number;
   symmetry: Record<string, unknown>;
+  /** Site permutations leaving the ground manifold's ρ unchanged (sector path). */
+  symmetries?: Int32Array[];
 }
 
 /** Cached per structure: sectors re-weight by refilling the table and the diagonal. */
@@ -188,7 +190,8 @@ export class EdSolver {
     if (g === energies.length && energies.length < dimension) {
       warnings.push(`all ${g} computed states are degenerate; the ground manifold may be larger — raise states`);
     }
-    const manifold: StateManifold = { basis: eig.basis, vectors: eig.vectors.slice(0, g) };
+    // Sector vectors are momentum eigenstates: ρ of the manifold is translation invariant.
+    const manifold: StateManifold = { basis: eig.basis, vectors: eig.vectors.slice(0, g), ...(eig.symmetries ? { symmetries: eig.symmetries } : {}) };
 
     const obsStart = now();
     const want = new Set(o.observables);
@@ -425,6 +428,7 @@ export class EdSolver {
       warmStart: false,
       lanczosMs,
       symmetry,
+      symmetries: check.group.sitePermutations,
     };
   }
 }

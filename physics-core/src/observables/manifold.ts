@@ -8,6 +8,12 @@ import type { FixedNumberBasis } from '../hilbert/fixed-number-basis.js';
 export interface StateManifold {
   basis: FixedNumberBasis;
   vectors: Float64Array[];
+  /**
+   * Site permutations that leave ρ unchanged (T ρ T† = ρ), when known: e.g. the lattice
+   * translations when every vector is a momentum eigenstate. Pair observables are then computed
+   * for one site per orbit and copied to the images.
+   */
+  symmetries?: Int32Array[];
 }
 
 /**

@@ -31,6 +31,8 @@ export interface TranslationGroup {
   shifts: Int32Array;
   /** Bit permutation of element e: four 256-entry tables at tables[e·1024 + 256·byte + value]. */
   tables: Int32Array;
+  /** Site permutation of element e: site i goes to sitePermutations[e][i]. */
+  sitePermutations: Int32Array[];
 }
 
 export type TranslationCheck = { group: TranslationGroup } | { group: null; reason: string };
@@ -122,7 +124,7 @@ export function translationGroup(model: CompiledModel, moves: DirectedMoves, tab
       }
     }
   }
-  return { group: { axes, lengths, order, shifts, tables } };
+  return { group: { axes, lengths, order, shifts, tables, sitePermutations: perms } };
 }
 
 function permute(tables: Int32Array, e: number, s: number): number {
