@@ -3,6 +3,7 @@ import {
   buildSector,
   expandSectorVector,
   sectorMatvec,
+  sectorBytes,
   sectorMomenta,
   type OrbitStructure,
   type Sector,
@@ -91,7 +92,7 @@ export function solveBySectors(
     const t0 = now();
     const sector = buildSector(orbits, momentum, table, fullDiagonal);
     sectorBuildMs += now() - t0;
-    largestSectorBytes = Math.max(largestSectorBytes, sector.column.byteLength + sector.values.byteLength + sector.rowStart.byteLength + sector.diagonal.byteLength);
+    largestSectorBytes = Math.max(largestSectorBytes, sectorBytes(sector));
     if (sector.dimension === 0) {
       sectors.push({ momentum, dimension: 0, iterations: 0, lowest: null, abandoned: false, converged: true });
       return;

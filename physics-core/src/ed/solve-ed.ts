@@ -357,7 +357,7 @@ export class EdSolver {
         estimate.basisBytes +
         estimate.diagonalBytes +
         estimateOrbitBytes(estimate.dimension, estimate.nnz, order) +
-        2 * (Math.ceil(estimate.nnz / order) * 20 + 12 * sectorDim) +
+        2 * (Math.ceil(estimate.nnz / order) * 4 + 24 * sectorDim) +
         estimateLanczosBytes(sectorDim, windowSize, states) +
         16 * estimate.dimension * (states + 1);
       if (needed > o.memoryBudgetBytes) {

@@ -227,12 +227,34 @@ export interface Sector {
   /** Representative index of each sector row. */
   rows: Int32Array;
   rowStart: Int32Array;
-  column: Int32Array;
-  /** Interleaved complex values of the off-diagonal entries (hops that stay in the orbit included). */
-  values: Float64Array;
+  /**
+   * Per entry, column << valueBits | value index into `valueTable` (coefficient × translation
+   * phase): 4 bytes per entry, the values stay in cache. Entries between orbits with different
+   * stabilizers carry an extra factor and sit in the `extra…` lists instead.
+   */
+  packed: Int32Array;
+  valueBits: number;
+  valueTable: Float64Array;
+  extraRow: Int32Array;
+  extraColumn: Int32Array;
+  extraValues: Float64Array;
   diagonal: Float64Array;
   /** e^{i k·n_e} per element e (interleaved). */
   character: Float64Array;
+}
+
+/** Bytes of a sector block. */
+export function sectorBytes(sector: Sector): number {
+  return (
+    sector.rows.byteLength +
+    sector.rowStart.byteLength +
+    sector.packed.byteLength +
+    sector.valueTable.byteLength +
+    sector.extraRow.byteLength +
+    sector.extraColumn.byteLength +
+    sector.extraValues.byteLength +
+    sector.diagonal.byteLength
+  );
 }
 
 /** All momenta of the group, the zero momentum first. */
@@ -272,42 +294,72 @@ export function buildSector(orbits: OrbitStructure, momentum: number[], table: F
   }
   const rows = Int32Array.from(rowList);
   const dim = rows.length;
-  const sizeOf = (i: number): number => popcount(stabilizer[i]);
+  // value index = coefficient · order + element
+  const coefficients = table.length / 2;
+  const values = coefficients * order;
+  const valueBits = Math.max(1, Math.ceil(Math.log2(values)));
+  if (dim > 2 ** (31 - valueBits)) {
+    throw new RangeError(`translation sectors: ${dim} rows and ${values} distinct values do not fit a 32-bit packed entry`);
+  }
+  const valueTable = new Float64Array(2 * values);
+  for (let c = 0; c < coefficients; c++) {
+    const tr = table[2 * c];
+    const ti = table[2 * c + 1];
+    for (let e = 0; e < order; e++) {
+      const cr = character[2 * e];
+      const ci = character[2 * e + 1];
+      valueTable[2 * (c * order + e)] = tr * cr - ti * ci;
+      valueTable[2 * (c * order + e) + 1] = tr * ci + ti * cr;
+    }
+  }
   const start = new Int32Array(dim + 1);
+  let extras = 0;
   for (let q = 0; q < dim; q++) {
     const i = rows[q];
     let c = 0;
-    for (let k = rowStart[i]; k < rowStart[i + 1]; k++) if (index[target[k]] >= 0) c++;
+    for (let k = rowStart[i]; k < rowStart[i + 1]; k++) {
+      const t = target[k];
+      if (index[t] < 0) continue;
+      if (stabilizer[t] === stabilizer[i]) c++;
+      else extras++;
+    }
     start[q + 1] = start[q] + c;
   }
-  const column = new Int32Array(start[dim]);
-  const values = new Float64Array(2 * start[dim]);
+  const packed = new Int32Array(start[dim]);
+  const extraRow = new Int32Array(extras);
+  const extraColumn = new Int32Array(extras);
+  const extraValues = new Float64Array(2 * extras);
   const diagonal = new Float64Array(dim);
   let p = 0;
+  let x = 0;
   for (let q = 0; q < dim; q++) {
     const i = rows[q];
     diagonal[q] = fullDiagonal[rankState(basis, reps[i])];
-    const si = sizeOf(i);
     for (let k = rowStart[i]; k < rowStart[i + 1]; k++) {
-      const col = index[target[k]];
+      const t = target[k];
+      const col = index[t];
       if (col < 0) continue;
-      const ratio = si === 1 && stabilizer[target[k]] === 1 ? 1 : Math.sqrt(sizeOf(target[k]) / si);
-      const tr = table[2 * coefficient[k]];
-      const ti = table[2 * coefficient[k] + 1];
-      const cr = character[2 * element[k]];
-      const ci = character[2 * element[k] + 1];
-      column[p] = col;
-      values[2 * p] = ratio * (tr * cr - ti * ci);
-      values[2 * p + 1] = ratio * (tr * ci + ti * cr);
-      p++;
+      const v = coefficient[k] * order + element[k];
+      if (stabilizer[t] === stabilizer[i]) {
+        packed[p++] = (col << valueBits) | v;
+      } else {
+        const ratio = Math.sqrt(popcount(stabilizer[t]) / popcount(stabilizer[i]));
+        extraRow[x] = q;
+        extraColumn[x] = col;
+        extraValues[2 * x] = ratio * valueTable[2 * v];
+        extraValues[2 * x + 1] = ratio * valueTable[2 * v + 1];
+        x++;
+      }
     }
   }
-  return { momentum: [...momentum], dimension: dim, rows, rowStart: start, column, values, diagonal, character };
+  return { momentum: [...momentum], dimension: dim, rows, rowStart: start, packed, valueBits, valueTable, extraRow, extraColumn, extraValues, diagonal, character };
 }
 
 /** y = H_k x on a sector (interleaved complex; x and y must not alias). */
 export function sectorMatvec(sector: Sector, x: Float64Array, y: Float64Array): void {
-  const { rowStart, column, values, diagonal, dimension } = sector;
+  const { rowStart, packed, valueTable, diagonal, dimension } = sector;
+  const bits = sector.valueBits;
+  const mask = (1 << bits) - 1;
   let k = 0;
   for (let r = 0; r < dimension; r++) {
     const dg = diagonal[r];
@@ -315,9 +367,11 @@ export function sectorMatvec(sector: Sector, x: Float64Array, y: Float64Array): 
     let im = dg * x[2 * r + 1];
     const end = rowStart[r + 1];
     for (; k < end; k++) {
-      const c = column[k] << 1;
-      const tr = values[2 * k];
-      const ti = values[2 * k + 1];
+      const e = packed[k];
+      const c = (e >>> bits) << 1;
+      const v = (e & mask) << 1;
+      const tr = valueTable[v];
+      const ti = valueTable[v + 1];
       const xr = x[c];
       const xi = x[c + 1];
       re += tr * xr - ti * xi;
@@ -325,6 +379,15 @@ export function sectorMatvec(sector: Sector, x: Float64Array, y: Float64Array): 
     }
     y[2 * r] = re;
     y[2 * r + 1] = im;
+  }
+  const { extraRow, extraColumn, extraValues } = sector;
+  for (let j = 0; j < extraRow.length; j++) {
+    const r = extraRow[j] << 1;
+    const c = extraColumn[j] << 1;
+    const tr = extraValues[2 * j];
+    const ti = extraValues[2 * j + 1];
+    y[r] += tr * x[c] - ti * x[c + 1];
+    y[r + 1] += tr * x[c + 1] + ti * x[c];
   }
 }
 
