@@ -50,6 +50,17 @@ describe('Chern numbers of the Haldane model (Haldane, Phys. Rev. Lett. 1988; me
     }
   });
 
+  it('reports the reciprocal vectors of its mesh: G_a · t_b = 2π δ_ab (definition of the reciprocal lattice)', () => {
+    const model = haldaneBlochModel(t1, t2, Math.PI / 2, 0.1);
+    const r = chernNumbers(model, { mesh: 6 });
+    for (let a = 0; a < 2; a++) {
+      for (let b = 0; b < 2; b++) {
+        const dot = r.reciprocal[a][0] * model.translations[b][0] + r.reciprocal[a][1] * model.translations[b][1];
+        expect(dot).toBeCloseTo(a === b ? 2 * Math.PI : 0, 12);
+      }
+    }
+  });
+
   it('sign agrees with the winding of d̂(k) for H = d₀ + d·σ: C_lower = (1/4π)∫ d̂·(∂₁d̂ × ∂₂d̂) (spin-½ Berry curvature, Berry, Proc. R. Soc. A 1984)', () => {
     // Independent of eigenvectors: sum of signed solid angles (Van Oosterom & Strackee, IEEE
     // Trans. Biomed. Eng. 1983) of the mesh triangles mapped onto the sphere by d̂(k).

@@ -40,6 +40,8 @@ export interface ChernResult {
   groups: BandGroup[];
   /** Σ of all Chern numbers (0 for any lattice model). */
   total: number;
+  /** Reciprocal vectors G_a (G_a · t_b = 2π δ_ab) spanning the k mesh: k = (i/mesh) G_1 + (j/mesh) G_2. */
+  reciprocal: number[][];
 }
 
 export function checkChernOptions(options: ChernOptions = {}): Required<ChernOptions> {
@@ -143,7 +145,7 @@ export function chernNumbers(model: BlochModel, options: ChernOptions = {}): Che
     if (o.curvature) group.curvature = curvature;
     return group;
   });
-  return { mesh: N, groups: out, total: out.reduce((s, g) => s + g.chern, 0) };
+  return { mesh: N, groups: out, total: out.reduce((s, g) => s + g.chern, 0), reciprocal: G.map((g) => [...g]) };
 }
 
 /** Determinant of a small complex matrix by Gaussian elimination with partial pivoting. */

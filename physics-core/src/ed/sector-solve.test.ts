@@ -82,7 +82,7 @@ describe('exact diagonalization in momentum sectors', () => {
     expect(symmetry.momenta[0][0]).not.toBe(symmetry.momenta[1][0]);
     // Averages over the degenerate pair do not depend on the basis chosen within it.
     sectors.bonds.forEach((b, i) => expect(b.current).toBeCloseTo(full.bonds[i].current, 9));
-    sectors.sites.forEach((s, i) => expect(s.density).toBeCloseTo(1 / 6, 10));
+    sectors.sites.forEach((s) => expect(s.density).toBeCloseTo(1 / 6, 10));
     expect(sectors.energies[2]).toBeCloseTo(full.energies[2], 10);
   });
 

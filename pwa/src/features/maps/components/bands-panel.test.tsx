@@ -1,7 +1,7 @@
 import type { ModelSpec } from '@phasewright/physics-core';
 import { render, screen } from '@testing-library/react';
 import { describe, expect, it } from 'vitest';
-import { computeBands, reciprocal2d } from '../lib/bands.js';
+import { computeBands } from '../lib/bands.js';
 import { BandsPanel } from './bands-panel.js';
 
 /**
@@ -107,16 +107,5 @@ describe('BandsPanel (one-particle bands of the point model)', { timeout: 20_000
   it('a failed computation is shown with its reason', async () => {
     render(<BandsPanel model={haldane} parameters={{}} compute={() => Promise.reject(new Error('$.lattice: something is wrong'))} />);
     expect((await screen.findByRole('alert')).textContent).toMatch(/No one-particle bands for this model: \$\.lattice: something is wrong/);
-  });
-});
-
-describe('reciprocal2d', () => {
-  it('G_a · t_b = 2π δ_ab for an oblique cell', () => {
-    const t = [
-      [1.3, 0.2],
-      [-0.4, 0.9],
-    ];
-    const G = reciprocal2d(t);
-    for (let a = 0; a < 2; a++) for (let b = 0; b < 2; b++) expect(G[a][0] * t[b][0] + G[a][1] * t[b][1]).toBeCloseTo(a === b ? 2 * Math.PI : 0, 12);
   });
 });

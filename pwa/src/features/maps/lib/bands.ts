@@ -6,7 +6,7 @@
  * it runs in the bands worker (../workers/bands-worker.ts) because compiling the model on the
  * periodic cluster costs ~0.1 s for a 2D lattice.
  */
-import { bandsOfSpec, buildLattice, type ModelSpec } from '@phasewright/physics-core';
+import { bandsOfSpec, type ModelSpec } from '@phasewright/physics-core';
 
 /** k points per reciprocal axis of the Chern / Berry-curvature mesh. */
 export const BANDS_MESH = 24;
@@ -40,18 +40,6 @@ export interface BandsView {
   ms: number;
 }
 
-/** Reciprocal vectors G_a of 2D translations t_b: G_a · t_b = 2π δ_ab. */
-export function reciprocal2d(t: number[][]): [number[], number[]] {
-  const [[ax, ay], [bx, by]] = t;
-  const det = ax * by - ay * bx;
-  if (Math.abs(det) < 1e-12) throw new Error('the lattice translations are parallel');
-  const f = (2 * Math.PI) / det;
-  return [
-    [f * by, -f * bx],
-    [-f * ay, f * ax],
-  ];
-}
-
 /** Bands, Berry curvature and Chern numbers of `model` with `parameters` applied, for one particle. */
 export function computeBands(model: ModelSpec, parameters: Record<string, number>, mesh = BANDS_MESH): BandsView {
   const t0 = performance.now();
@@ -59,7 +47,7 @@ export function computeBands(model: ModelSpec, parameters: Record<string, number
   let curvature: BandsView['curvature'] = null;
   const lowest = report.chern?.groups[0];
   if (report.chern && lowest?.curvature) {
-    curvature = { bands: lowest.bands, mesh: report.chern.mesh, values: lowest.curvature, reciprocal: reciprocal2d(buildLattice(model.lattice).translations) };
+    curvature = { bands: lowest.bands, mesh: report.chern.mesh, values: lowest.curvature, reciprocal: [report.chern.reciprocal[0], report.chern.reciprocal[1]] };
   }
   return {
     nBands: report.nBands,
