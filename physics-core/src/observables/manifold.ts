@@ -10,10 +10,29 @@ export interface StateManifold {
   vectors: Float64Array[];
   /**
    * Site permutations that leave ρ unchanged (T ρ T† = ρ), when known: e.g. the lattice
-   * translations when every vector is a momentum eigenstate. Pair observables are then computed
-   * for one site per orbit and copied to the images.
+   * translations when every vector is a momentum eigenstate. `transitionExpectation` then
+   * computes one operator per orbit of (check, want, flip) and reuses it for the images.
    */
   symmetries?: Int32Array[];
+}
+
+/** Per manifold, expectations already computed, keyed by the orbit's canonical (check, want, flip). */
+const known = new WeakMap<StateManifold, Map<string, [number, number]>>();
+
+function permuteMask(perm: Int32Array, mask: number): number {
+  let out = 0;
+  for (let rest = mask; rest !== 0; rest &= rest - 1) out |= 1 << perm[31 - Math.clz32(rest & -rest)];
+  return out >>> 0;
+}
+
+/** The smallest image of (check, want, flip) under the permutations, as a key. */
+function canonicalKey(perms: Int32Array[], check: number, want: number, flip: number): string {
+  let best: [number, number, number] = [check >>> 0, want >>> 0, flip >>> 0];
+  for (const g of perms) {
+    const c: [number, number, number] = [permuteMask(g, check), permuteMask(g, want), permuteMask(g, flip)];
+    if (c[0] < best[0] || (c[0] === best[0] && (c[1] < best[1] || (c[1] === best[1] && c[2] < best[2])))) best = c;
+  }
+  return best.join(':');
 }
 
 /**
@@ -28,6 +47,28 @@ export function transitionExpectation(
   flip: number,
   out: Float64Array | number[],
 ): void {
+  if (!m.symmetries?.length) {
+    scanTransition(m, check, want, flip, out);
+    return;
+  }
+  // ⟨g(O)⟩ = ⟨O⟩ when ρ is invariant under g: one scan per orbit of operators.
+  let cache = known.get(m);
+  if (!cache) {
+    cache = new Map();
+    known.set(m, cache);
+  }
+  const key = canonicalKey(m.symmetries, check, want, flip);
+  const hit = cache.get(key);
+  if (hit) {
+    out[0] = hit[0];
+    out[1] = hit[1];
+    return;
+  }
+  scanTransition(m, check, want, flip, out);
+  cache.set(key, [out[0], out[1]]);
+}
+
+function scanTransition(m: StateManifold, check: number, want: number, flip: number, out: Float64Array | number[]): void {
   const { states, dimension, nLow, lowMask, rankOfLow, offsetOfHigh } = m.basis;
   let re = 0;
   let im = 0;

@@ -2,33 +2,21 @@ import { Matrix, EigenvalueDecomposition } from 'ml-matrix';
 import type { Lattice } from '../model/types.js';
 import { bit, transitionExpectation, type StateManifold } from './manifold.js';
 
-/**
- * One-body density matrix ρ_ij = ⟨b†_i b_j⟩ (Hermitian; Ns×Ns row-major re/im). With
- * `m.symmetries`, only rows i of one site per orbit are computed and ρ_{g(i) g(j)} = ρ_ij fills the rest.
- */
+/** One-body density matrix ρ_ij = ⟨b†_i b_j⟩ (Hermitian; Ns×Ns row-major re/im). */
 export function oneBodyDensityMatrix(m: StateManifold, densities: Float64Array): { re: Float64Array; im: Float64Array } {
   const ns = m.basis.nSites;
   const re = new Float64Array(ns * ns);
   const im = new Float64Array(ns * ns);
-  const done = new Uint8Array(ns * ns);
   const h = new Float64Array(2);
-  const perms = m.symmetries ?? [];
   for (let i = 0; i < ns; i++) {
     re[i * ns + i] = densities[i];
-    for (let j = 0; j < ns; j++) {
-      if (j === i || done[i * ns + j]) continue;
+    for (let j = i + 1; j < ns; j++) {
       // ⟨b†_i b_j⟩: move a particle j → i
       transitionExpectation(m, bit(i) | bit(j), bit(j), bit(i) | bit(j), h);
-      const set = (a: number, b: number): void => {
-        re[a * ns + b] = h[0];
-        im[a * ns + b] = h[1];
-        re[b * ns + a] = h[0];
-        im[b * ns + a] = -h[1];
-        done[a * ns + b] = 1;
-        done[b * ns + a] = 1;
-      };
-      set(i, j);
-      for (const g of perms) set(g[i], g[j]);
+      re[i * ns + j] = h[0];
+      im[i * ns + j] = h[1];
+      re[j * ns + i] = h[0];
+      im[j * ns + i] = -h[1];
     }
   }
   return { re, im };
