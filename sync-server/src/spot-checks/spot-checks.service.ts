@@ -1,4 +1,4 @@
-import { BadRequestException, HttpException, HttpStatus, Inject, Injectable, NotFoundException } from '@nestjs/common';
+import { BadRequestException, HttpException, HttpStatus, Inject, Injectable, NotFoundException, type OnModuleDestroy } from '@nestjs/common';
 import { InjectConnection } from '@nestjs/sequelize';
 import { CORE_VERSION, type MapPoint, samplePointKeys, spotCheckJobs, type SweepSpec } from '@phasewright/physics-core';
 import { randomUUID } from 'node:crypto';
@@ -10,20 +10,26 @@ import { serverVersion } from '../config/repo-paths.js';
 import { MapsService } from '../maps/maps.service.js';
 import { SYNC_CONFIG, type SyncConfig } from '../sync/sync-config.js';
 import type { RunSpotCheckDto, SpotCheckPointDto, SpotCheckReportDto } from './dto/spot-check.dto.js';
-import { runInWorkers } from './spot-check-runner.js';
+import { SpotCheckPool } from './spot-check-runner.js';
 
 /** K keys drawn without replacement by a seeded shuffle of the sorted keys (the CLI's rule). */
 /** Re-runs sampled points of a stored map with physics-core in worker threads and stores the report. */
 @Injectable()
-export class SpotChecksService {
+export class SpotChecksService implements OnModuleDestroy {
   private readonly running = new Map<string, number>();
   private total = 0;
+  /** Worker threads kept between spot-checks (started on first use). */
+  private readonly pool = new SpotCheckPool();
 
   constructor(
     @InjectConnection() private readonly sequelize: Sequelize,
     @Inject(SYNC_CONFIG) private readonly config: SyncConfig,
     private readonly maps: MapsService,
   ) {}
+
+  async onModuleDestroy(): Promise<void> {
+    await this.pool.close();
+  }
 
   async run(access: ProjectAccess, userId: string, mapId: string, body: RunSpotCheckDto): Promise<SpotCheckReportDto> {
     const limits = this.config.spotCheck;
@@ -63,7 +69,7 @@ export class SpotChecksService {
     const runtime = { kind: 'node' as const, version: process.version, cores: os.availableParallelism() };
     const jobs = spotCheckJobs(sweep, stored, keys, runtime);
     const t0 = performance.now();
-    const events = await runInWorkers(jobs, this.config.spotCheck.workers, this.config.spotCheck.timeoutS * 1000);
+    const events = await this.pool.run(jobs, this.config.spotCheck.workers, this.config.spotCheck.timeoutS * 1000);
     const totalMs = performance.now() - t0;
     const fresh = new Map<string, MapPoint>();
     const failures = new Map<string, string>();
