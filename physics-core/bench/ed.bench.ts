@@ -76,7 +76,13 @@ function run(L: number, symmetry: 'auto' | 'none'): void {
     secondPassIterations: number;
     storage: string;
     operatorBytes: number;
-    symmetry: { kind: string; groundMomentum?: string[]; sectorRuns?: { momentum: number[]; dimension: number; iterations: number; abandoned: boolean }[] };
+    symmetry: {
+      kind: string;
+      groundMomentum?: string[];
+      sectorRuns?: { momentum: number[]; dimension: number; iterations: number; abandoned: boolean }[];
+      matvecMs?: number;
+      matvecEntries?: number;
+    };
   };
   const groundMs = extras.timing.operatorMs + extras.timing.lanczosMs;
   const lines = [
@@ -105,6 +111,13 @@ function run(L: number, symmetry: 'auto' | 'none'): void {
     }
   }
   const runs = extras.symmetry.sectorRuns;
+  const { matvecMs, matvecEntries } = extras.symmetry;
+  if (runs && matvecMs !== undefined && matvecEntries !== undefined) {
+    lines.push(
+      `matvec on sector blocks=${(matvecMs / result.convergence.iterations).toFixed(2)} ms per product on average, ` +
+        `${((matvecMs * 1e6) / matvecEntries).toFixed(2)} ns per stored entry (${(matvecEntries / (matvecMs / 1000) / 1e6).toFixed(0)} M entries/s; ${ms(matvecMs)} of the Lanczos time)`,
+    );
+  }
   if (runs) {
     lines.push(
       `sectors=${runs.length}: ` +

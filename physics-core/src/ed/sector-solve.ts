@@ -61,6 +61,9 @@ export interface SectorSolveResult {
   sectorBuildMs: number;
   /** Largest sector block in bytes. */
   largestSectorBytes: number;
+  /** Milliseconds inside H·x on the sector blocks, and the stored entries those products visited. */
+  matvecMs: number;
+  matvecEntries: number;
 }
 
 interface Kept {
@@ -87,6 +90,8 @@ export function solveBySectors(
   let restarts = 0;
   let sectorBuildMs = 0;
   let largestSectorBytes = 0;
+  let matvecMs = 0;
+  let matvecEntries = 0;
   const momenta = sectorMomenta(orbits.group);
   momenta.forEach((momentum, index) => {
     const t0 = now();
@@ -99,7 +104,14 @@ export function solveBySectors(
     }
     const full = kept.length >= o.states;
     const highest = full ? kept[o.states - 1].value : Number.POSITIVE_INFINITY;
-    const eig = lowestEigenpairs((x, y) => sectorMatvec(sector, x, y), sector.dimension, {
+    const entries = sector.packed.length + sector.extraRow.length + sector.dimension;
+    const matvec = (x: Float64Array, y: Float64Array): void => {
+      const t = now();
+      sectorMatvec(sector, x, y);
+      matvecMs += now() - t;
+      matvecEntries += entries;
+    };
+    const eig = lowestEigenpairs(matvec, sector.dimension, {
       states: Math.min(o.states, sector.dimension),
       tolerance: o.tolerance,
       maxIterations: o.maxIterations,
@@ -151,6 +163,8 @@ export function solveBySectors(
     sectors,
     sectorBuildMs,
     largestSectorBytes,
+    matvecMs,
+    matvecEntries,
   };
 }
 

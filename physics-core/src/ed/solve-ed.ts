@@ -397,6 +397,8 @@ export class EdSolver {
       momenta: r.momenta,
       groundMomentum: r.momenta[0]?.map((m, a) => `${m}/${lengths[a]}`),
       sectorRuns: r.sectors.map((s: SectorSummary) => ({ ...s })),
+      matvecMs: r.matvecMs,
+      matvecEntries: r.matvecEntries,
       ...(o.startVector ? { note: 'the given start vector is not used in momentum sectors' } : {}),
     };
     return {
