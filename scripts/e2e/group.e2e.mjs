@@ -244,6 +244,9 @@ export const tests = [
 
       // The service worker must control the page before the network goes.
       await page.goto(`${baseUrl}/projects/${projectId}`);
+      // No token refresh may be in flight at the reload below: a refresh answered to a page that is
+      // gone leaves this device with a used refresh token, and the next refresh signs it out.
+      await syncPhase(page, 'up-to-date');
       await page.evaluate(async () => {
         const registration = await navigator.serviceWorker.ready;
         const worker = registration.active;
@@ -290,6 +293,19 @@ export const tests = [
       assert.ok(networkDown, 'the network is really off after the reload');
       await page.getByTestId('signed-in-user').filter({ hasText: accounts.owner.displayName }).waitFor();
       await screenshot('group-6-offline-reload');
+
+      // The sync page says why each change waits: the network.
+      await page.getByTestId('sync-badge').click();
+      await page.waitForURL(/\/sync$/);
+      const reasons = page.getByRole('list', { name: 'Waiting' }).getByTestId('outbox-reason');
+      await reasons.first().waitFor();
+      assert.ok((await reasons.count()) >= 3, 'model, sweep and map are listed');
+      // Chromium's offline emulation may leave navigator.onLine true after a reload; then the page
+      // learns it from the failed round instead.
+      for (const text of await reasons.allTextContents()) assert.match(text, /^waiting — (for the network|the last attempt failed \(The server did not answer)/);
+      await screenshot('group-6b-sync-page-offline');
+      await page.goBack();
+      await page.getByTestId('map-view').waitFor();
 
       // Back online: the outbox drains.
       const t0 = Date.now();

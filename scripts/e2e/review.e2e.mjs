@@ -177,6 +177,22 @@ export const tests = [
         assert.match(await page.getByRole('heading', { level: 1 }).locator('..').innerText(), /6 points/, 'the refined map has one point more');
         await screenshot('review-8-editor-sees-outdated');
 
+        // The project home filters by review state and author.
+        await openDemoProject(page, baseUrl);
+        const items = page.getByRole('list', { name: 'Items' });
+        await page.getByRole('combobox', { name: 'Review state' }).selectOption('outdated');
+        await items.locator('[data-kind="map"][data-review-state="outdated"]').filter({ hasText: `review cut ${run}` }).waitFor({ timeout: 15_000 });
+        assert.equal(await items.locator('li:not([data-review-state="outdated"])').count(), 0, 'only maps with an outdated verdict are listed');
+        await page.getByRole('combobox', { name: 'Review state' }).selectOption('approved');
+        assert.equal(await items.getByRole('link', { name: `review cut ${run}` }).count(), 0, 'the map is no longer listed as approved');
+        await page.getByRole('combobox', { name: 'Review state' }).selectOption('all');
+        const author = page.getByRole('combobox', { name: 'Author' });
+        await author.selectOption({ label: `by ${EDITOR.displayName} (me)` });
+        await items.getByRole('link', { name: `review chain ${run}` }).waitFor();
+        for (const text of await items.locator('li').allInnerTexts()) assert.match(text, new RegExp(`by ${EDITOR.displayName} \\(me\\)`));
+        await page.getByRole('combobox', { name: 'Review state' }).selectOption('outdated');
+        await screenshot('review-8b-project-filters');
+
         // The reviewer sees it too.
         await rpage.reload();
         await rpage.locator('[data-testid="review"][data-status="approved"][data-outdated="true"]').waitFor({ timeout: 15_000 });

@@ -1,11 +1,14 @@
 import { useLiveQuery } from 'dexie-react-hooks';
+import { useSyncExternalStore } from 'react';
 import { Link } from 'react-router-dom';
 import { Button } from '../../components/ui/button.js';
 import { Notice } from '../../components/ui/notice.js';
 import { ConflictCard } from '../../features/sync/components/conflict-card.js';
 import { syncStatusText, useSyncStatus } from '../../features/sync/hooks/use-sync-status.js';
-import { LOCAL_PROJECT_ID, db, type OutboxEntry } from '../../lib/db.js';
-import { discardRefused, retryRefused, syncNow } from '../../lib/sync-engine.js';
+import { outboxHold, type OutboxContext } from '../../features/sync/lib/outbox-hold.js';
+import { LOCAL_PROJECT_ID, db, type OutboxEntry, type ProjectRole } from '../../lib/db.js';
+import { discardRefused, engineState, retryRefused, subscribeEngine, syncNow } from '../../lib/sync-engine.js';
+import { useOnlineStatus } from '../../lib/use-online-status.js';
 
 interface Row {
   entry: OutboxEntry;
@@ -37,7 +40,24 @@ export function Component() {
   const rows = useLiveQuery(async () => describeEntries(await db.outbox.where('projectId').notEqual(LOCAL_PROJECT_ID).sortBy('seq')), []);
   const conflicts = useLiveQuery(() => db.conflicts.orderBy('id').toArray(), []);
   const states = useLiveQuery(() => db.syncState.toArray(), []);
+  const online = useOnlineStatus();
+  const engine = useSyncExternalStore(subscribeEngine, engineState, engineState);
+  const access = useLiveQuery(async () => {
+    const session = await db.session.get('current');
+    const projects = session ? await db.projects.where('userId').equals(session.user.id).toArray() : [];
+    return { signedIn: !!session, canReach: !!session?.refreshToken, roles: new Map<string, ProjectRole>(projects.map((p) => [p.id, p.myRole])) };
+  }, []);
+  const context: OutboxContext = {
+    conflictIds: new Set((conflicts ?? []).map((c) => c.entityId)),
+    roles: access?.roles ?? new Map(),
+    signedIn: access?.signedIn ?? false,
+    canReach: (access?.canReach ?? false) && !engine.needsSignIn,
+    online,
+    engineRunning: engine.running,
+    lastError: engine.lastError,
+  };
   const waiting = (rows ?? []).filter((r) => !r.entry.error);
+  const heldCount = waiting.filter((r) => outboxHold(r.entry, context).held).length;
   const refused = (rows ?? []).filter((r) => r.entry.error);
   return (
     <div className="max-w-4xl space-y-6">
@@ -76,16 +96,28 @@ export function Component() {
         <h2 id="waiting-heading" className="text-lg font-bold text-ink-900">
           Waiting to be pushed ({waiting.length})
         </h2>
+        {heldCount > 0 ? (
+          <p className="text-sm text-ink-700" data-testid="held-summary">
+            {heldCount} of them {heldCount === 1 ? 'is' : 'are'} held until the reason given beside {heldCount === 1 ? 'it' : 'them'} is cleared. They stay in this
+            browser's database meanwhile; nothing is lost.
+          </p>
+        ) : null}
         {waiting.length ? (
           <ul className="divide-y divide-line rounded-xl bg-surface text-sm ring-1 ring-line" aria-label="Waiting">
-            {waiting.map((r) => (
-              <li key={r.entry.seq} className="flex flex-wrap gap-3 px-4 py-2">
-                <span className="w-14 text-xs font-semibold text-ink-600 uppercase">{r.entry.entity}</span>
-                {r.href ? <Link className="font-semibold text-ink-900 hover:underline" to={r.href}>{r.name}</Link> : <span>{r.name}</span>}
-                <span className="text-ink-600">{r.project}</span>
-                <span className="ml-auto text-xs text-ink-500">{r.entry.batchId ? 'sending…' : new Date(r.entry.createdAt).toLocaleTimeString()}</span>
-              </li>
-            ))}
+            {waiting.map((r) => {
+              const hold = outboxHold(r.entry, context);
+              return (
+                <li key={r.entry.seq} className="flex flex-wrap items-baseline gap-x-3 gap-y-1 px-4 py-2" data-outbox-state={hold.state} data-held={String(hold.held)}>
+                  <span className="w-14 text-xs font-semibold text-ink-600 uppercase">{r.entry.entity}</span>
+                  {r.href ? <Link className="font-semibold text-ink-900 hover:underline" to={r.href}>{r.name}</Link> : <span>{r.name}</span>}
+                  <span className="text-ink-600">{r.project}</span>
+                  <span className="ml-auto text-xs text-ink-500">queued {new Date(r.entry.createdAt).toLocaleTimeString()}</span>
+                  <p className={`w-full text-xs ${hold.held ? 'font-semibold text-amber-900' : 'text-ink-600'}`} data-testid="outbox-reason">
+                    {hold.state === 'sending' ? 'sending' : 'waiting'} — {hold.reason}
+                  </p>
+                </li>
+              );
+            })}
           </ul>
         ) : (
           <p className="text-sm text-ink-600">Nothing waits.</p>
