@@ -11,13 +11,12 @@
 //      proxy of the test that can "deploy" a new service worker (a byte-different sw.js) and hold
 //      pushes; the update prompt says a sync runs, "Reload when synced" waits for the push, then the
 //      page reloads on the new version and nothing waits any more.
-// Every step a person does happens in the page. One step is not a user's: the test's own admin
-// account is made a site admin with SQL (the demo seed has no admin yet), by its unique address.
+// Every step a person does happens in the page. The site admin who reads the captured mail is the
+// demo admin of the seed.
 import assert from 'node:assert/strict';
 import { randomBytes } from 'node:crypto';
 import http from 'node:http';
 import { launchFreshContext } from './browser.mjs';
-import { rootSql } from '../lib/db.mjs';
 
 const PASSWORD = 'quartz-lantern-8128';
 const run = randomBytes(3).toString('hex');
@@ -48,24 +47,18 @@ async function signIn(page, baseUrl, who) {
   await page.getByTestId('signed-in-user').filter({ hasText: accounts[who].displayName }).waitFor();
 }
 
-/** Makes the test's own account a site admin (not a user step: there is no demo admin to use). */
-async function promoteToAdmin(email) {
-  if (!/^[a-z0-9.]+@example\.org$/.test(email)) throw new Error(`unexpected address ${email}`);
-  const out = await rootSql("SELECT DISTINCT table_schema FROM information_schema.columns WHERE table_name = 'users' AND column_name = 'site_role'");
-  const schemas = out.split('\n').slice(1).map((s) => s.trim()).filter((s) => /^[A-Za-z0-9_]+$/.test(s));
-  for (const schema of schemas) await rootSql(`UPDATE \`${schema}\`.users SET site_role = 'admin' WHERE email = '${email}'`);
-}
+/** The demo site admin (db/seeders/0001-demo-accounts.mjs). */
+const DEMO_ADMIN = { email: 'ada.quill@example.org', password: 'admin-lantern-4821', displayName: 'Ada Quill' };
 
-/** The admin's context: registered, promoted, on the Mail page (link in the header). */
+/** The admin's context: the demo site admin signed in, on the Mail page (link in the header). */
 async function openAdminMail(baseUrl, screenshot, shotName) {
   const admin = await launchFreshContext();
   const page = admin.context.pages()[0] ?? (await admin.context.newPage());
-  if (accounts.admin) await signIn(page, baseUrl, 'admin');
-  else {
-    await register(page, baseUrl, 'admin', `Site Admin ${run}`);
-    await promoteToAdmin(address('admin'));
-    await page.reload();
-  }
+  await page.goto(`${baseUrl}/sign-in`);
+  await page.locator('[data-path="email"]').fill(DEMO_ADMIN.email);
+  await page.locator('[data-path="password"]').fill(DEMO_ADMIN.password);
+  await page.getByRole('button', { name: 'Sign in' }).click();
+  await page.getByTestId('signed-in-user').filter({ hasText: DEMO_ADMIN.displayName }).waitFor();
   await page.getByRole('link', { name: 'Mail' }).click({ timeout: 15_000 });
   await page.getByRole('heading', { name: 'Captured mail' }).waitFor();
   return { admin, page, shot: () => screenshot(shotName, page) };
