@@ -105,6 +105,25 @@ function StructureFactorGrid({ rows }: { rows: { q: [number, number]; value: num
   );
 }
 
+/**
+ * How an ED point was solved, in words: the cluster's Hilbert-space size and, when the solver
+ * used momentum sectors, how many and the ground state's crystal momentum (only the momenta the
+ * finite cluster allows exist). Null for other methods.
+ */
+export function edSolverNote(result: Result): string | null {
+  if (result.method !== 'ed') return null;
+  const extras = (result.extras ?? {}) as { dimension?: number; symmetry?: { kind?: string; sectors?: number; lengths?: number[]; momenta?: number[][]; reason?: string } };
+  const size = typeof extras.dimension === 'number' ? `${result.sites.length} sites, ${extras.dimension.toLocaleString('en-GB')} basis states` : `${result.sites.length} sites`;
+  const s = extras.symmetry;
+  if (s?.kind === 'translations' && s.lengths && s.momenta?.length) {
+    const k = (m: number[]) => `(${m.map((x, a) => `2π·${x}/${s.lengths?.[a]}`).join(', ')})`;
+    const ground = s.momenta[0];
+    const degenerate = result.degenerate ? `; the ground manifold averaged here spans ${[...new Set(s.momenta.slice(0, result.energies.length).map((m) => k(m)))].length > 1 ? 'several momenta' : 'one momentum'}` : '';
+    return `Exact diagonalization: ${size}, solved in ${s.sectors} momentum sectors; ground state at k = ${k(ground)}${degenerate}. A finite cluster has only these momenta.`;
+  }
+  return `Exact diagonalization: ${size}, full basis${s?.reason ? ` (no momentum sectors: ${s.reason})` : ''}.`;
+}
+
 export function PointDetail({ pointKey, point, result, error, labelName, bands }: Props) {
   return (
     <section className="space-y-3 rounded-xl border border-line bg-surface p-4" aria-label={`Point ${pointKey}`} data-testid="point-detail">
@@ -139,6 +158,11 @@ export function PointDetail({ pointKey, point, result, error, labelName, bands }
           <div>
             <ClusterResult result={result} />
             <p className="mt-1 text-xs text-ink-600">Site fill: density ⟨n⟩ (empty 0, full ink 1). Arrows: bond currents, width ∝ |current|. Plaquettes: flux, blue negative, vermillion positive.</p>
+            {edSolverNote(result) ? (
+              <p className="mt-1 text-xs text-ink-600" data-testid="ed-solver-note">
+                {edSolverNote(result)}
+              </p>
+            ) : null}
           </div>
           <div>
             <p className="text-xs font-semibold text-ink-700">S(q)</p>
