@@ -4,6 +4,10 @@
  * points new), a second push of the same points from another client (the merge path), and a
  * paged pull of everything. Target (issue 7): each under 2 s.
  *
+ * Each figure also gives the CPU seconds of this process (server and client share it), which say
+ * more than wall time on a shared, loaded machine. PW_BENCH_VERBOSE=1 prints the server's own
+ * timings (checks, load + merge, serialise, write) as well.
+ *
  * The server is the built one (`dist/`, emitted by tsc with decorator metadata, which Nest's
  * injection needs); the script builds physics-core and the server first. The points are TEST
  * FIXTURES: closed-form numbers shaped like real points (energies, 12 site densities, S(q) rows),
