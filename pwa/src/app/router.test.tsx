@@ -1,5 +1,5 @@
 import { CORE_VERSION } from '@phasewright/physics-core';
-import { render, screen, within } from '@testing-library/react';
+import { cleanup, render, screen, within } from '@testing-library/react';
 import { createMemoryRouter, RouterProvider } from 'react-router-dom';
 import { describe, expect, it } from 'vitest';
 import { AppProvider } from './provider.js';
@@ -33,5 +33,23 @@ describe('app shell', () => {
     expect(await screen.findByRole('heading', { name: 'No page here' })).toBeTruthy();
     expect(screen.getByText('/no/such/page')).toBeTruthy();
     expect(screen.getByRole('navigation', { name: 'Main' })).toBeTruthy();
+  });
+
+  it('opens the reset link of the e-mail (/reset-password#token=…) as the new-password form, and without a token as the request form', async () => {
+    renderAt('/reset-password#token=abc123');
+    expect(await screen.findByRole('heading', { level: 1, name: 'Choose a new password' })).toBeTruthy();
+    expect(screen.getByRole('form', { name: 'Choose a new password' })).toBeTruthy();
+    cleanup();
+    renderAt('/reset-password?email=pim%40example.org');
+    expect(await screen.findByRole('heading', { level: 1, name: 'Forgot your password?' })).toBeTruthy();
+    expect((screen.getByRole('textbox', { name: 'E-mail address' }) as HTMLInputElement).value).toBe('pim@example.org');
+  });
+
+  it('routes the review link of a review-request e-mail to the review page (not the 404 page)', async () => {
+    // The address sync-server/src/reviews/reviews.service.ts puts into the e-mail; signed out here.
+    renderAt('/projects/p1/maps/m1/reviews/r1');
+    expect(await screen.findByText('Sign in to open this review')).toBeTruthy();
+    expect(screen.getByTestId('review-sign-in').getAttribute('href')).toBe(`/sign-in?next=${encodeURIComponent('/projects/p1/maps/m1/reviews/r1')}`);
+    expect(screen.queryByRole('heading', { name: 'No page here' })).toBeNull();
   });
 });
