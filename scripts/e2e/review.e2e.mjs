@@ -170,6 +170,7 @@ export const tests = [
         await syncPhase(page, 'up-to-date', 40_000);
         await screenshot('review-7-refined');
         await page.getByRole('link', { name: 'Open the map' }).click();
+        await page.locator('[data-testid="map-review-state"][data-state="outdated"]').waitFor({ timeout: 15_000 });
         await page.getByTestId('map-review-link').click();
         await page.waitForURL(/\/review$/);
         await page.locator('[data-testid="review"][data-status="approved"][data-outdated="true"]').waitFor({ timeout: 15_000 });

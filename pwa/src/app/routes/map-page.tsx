@@ -3,6 +3,9 @@ import { useMemo, useState } from 'react';
 import { Link, useParams } from 'react-router-dom';
 import { useMapPoints, useMapRecord } from '../../features/maps/api/maps.js';
 import { useStoredProject } from '../../features/projects/api/get-projects.js';
+import { useReviews } from '../../features/reviews/api/get-reviews.js';
+import { REVIEW_STATE_TEXT, mapReviewState } from '../../features/reviews/lib/review-state.js';
+import { useSession } from '../../lib/auth.js';
 import { LOCAL_PROJECT_ID, LOCAL_PROJECT_NAME } from '../../lib/db.js';
 import { pointsDigest } from '../../lib/sync-engine.js';
 import { MapView } from '../../features/maps/components/map-view.js';
@@ -17,6 +20,9 @@ export function Component() {
   const map = useMapRecord(id);
   const rows = useMapPoints(id);
   const project = useStoredProject(map && map.projectId !== LOCAL_PROJECT_ID ? map.projectId : undefined);
+  const session = useSession();
+  const reviews = useReviews(project?.id ?? '', id ?? '', !!project && !!session?.refreshToken);
+  const reviewState = reviews.data ? mapReviewState(reviews.data) : undefined;
   const [measured, setMeasured] = useState<MeasurementRow[]>();
   // The digest the server keeps for a map's point set; equal digests on two devices mean equal points.
   const digest = useMemo(() => {
@@ -49,6 +55,11 @@ export function Component() {
             <Link className="text-accent-700 underline underline-offset-2" to={`/projects/${project.id}/maps/${id}/review`} data-testid="map-review-link">
               Review
             </Link>
+          ) : null}
+          {reviewState && reviewState !== 'none' ? (
+            <span className={reviewState === 'approved' ? 'text-good-700' : reviewState === 'requested' ? 'text-ink-700' : 'text-amber-900'} data-testid="map-review-state" data-state={reviewState}>
+              {REVIEW_STATE_TEXT[reviewState]}
+            </span>
           ) : null}
           {map.sweepId ? (
             <Link className="text-accent-700 underline underline-offset-2" to={`/sweeps/${map.sweepId}`}>

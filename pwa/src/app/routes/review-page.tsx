@@ -1,9 +1,9 @@
-import { useEffect, useMemo, useRef, useState, useSyncExternalStore } from 'react';
+import { useEffect, useMemo, useRef, useState } from 'react';
 import { Link, useLocation, useParams } from 'react-router-dom';
 import { Notice } from '../../components/ui/notice.js';
 import { errorText } from '../../lib/api-client.js';
 import { useSession } from '../../lib/auth.js';
-import { engineState, subscribeEngine, syncNow } from '../../lib/sync-engine.js';
+import { syncNow } from '../../lib/sync-engine.js';
 import { useMapPoints, useMapRecord } from '../../features/maps/api/maps.js';
 import { useMembers } from '../../features/projects/api/get-members.js';
 import { useStoredProject } from '../../features/projects/api/get-projects.js';
@@ -45,13 +45,6 @@ export function Component() {
   const names = useMemo(() => Object.fromEntries((members.data ?? []).map((m) => [m.userId, m.displayName])), [members.data]);
   const pointKeys = useMemo(() => (rows ?? []).map((r) => r.key).sort(), [rows]);
   const fetching = useFetchMissingMap(map === null, !!session?.refreshToken);
-  // After every finished sync round (e.g. new points of this map pushed or pulled) the verdicts are
-  // read again: whether one is outdated is decided by the server from the map's point digest.
-  const { lastSyncAt } = useSyncExternalStore(subscribeEngine, engineState, engineState);
-  const refetchReviews = reviews.refetch;
-  useEffect(() => {
-    if (lastSyncAt !== null && session) void refetchReviews();
-  }, [lastSyncAt, session, refetchReviews]);
   if (session === null) {
     return (
       <Notice tone="info" title="Sign in to open this review">

@@ -1,5 +1,7 @@
 import { queryOptions, useQuery } from '@tanstack/react-query';
+import { useEffect, useRef, useSyncExternalStore } from 'react';
 import { apiCall } from '../../../lib/auth.js';
+import { engineState, subscribeEngine } from '../../../lib/sync-engine.js';
 
 export interface ServerSpotCheckPoint {
   key: string;
@@ -81,7 +83,20 @@ export function getReviews(projectId: string, mapId: string, { signal }: { signa
 export const reviewsQueryOptions = (projectId: string, mapId: string) =>
   queryOptions({ queryKey: reviewKeys.map(projectId, mapId), queryFn: ({ signal }) => getReviews(projectId, mapId, { signal }), retry: false });
 
-/** `enabled` false while nobody is signed in (the call would only fail). */
+/**
+ * `enabled` false while nobody is signed in (the call would only fail). The reviews are read again
+ * after every finished sync round: whether a verdict is outdated is decided by the server from the
+ * map's point digest, which a push or pull of new points may just have changed.
+ */
 export function useReviews(projectId: string, mapId: string, enabled = true) {
-  return useQuery({ ...reviewsQueryOptions(projectId, mapId), enabled });
+  const query = useQuery({ ...reviewsQueryOptions(projectId, mapId), enabled });
+  const { lastSyncAt } = useSyncExternalStore(subscribeEngine, engineState, engineState);
+  const { refetch } = query;
+  const seenSync = useRef(lastSyncAt);
+  useEffect(() => {
+    if (lastSyncAt === seenSync.current) return;
+    seenSync.current = lastSyncAt;
+    if (enabled) void refetch();
+  }, [enabled, lastSyncAt, refetch]);
+  return query;
 }
