@@ -97,6 +97,13 @@ describe('GET /api/health with no database listening', () => {
     const res = await request(app.getHttpServer()).get('/api/docs-json').expect(200);
     expect(Object.keys(res.body.paths)).toContain('/api/health');
   });
+
+  it('answers a route that needs the database with 503 "database unavailable, retry" while it is down', async () => {
+    const res = await request(app.getHttpServer()).post('/api/auth/sign-in').send({ email: 'nobody@example.org', password: 'quartz-meadow-5512' }).expect(503);
+    expect(res.body).toMatchObject({ statusCode: 503, error: 'Service Unavailable', details: { reason: 'database-unavailable' } });
+    expect(res.body.message).toMatch(/^Database unavailable .*retry/);
+    expect(res.headers['retry-after']).toBe('5');
+  });
 });
 
 describe('error shape and static PWA', () => {
