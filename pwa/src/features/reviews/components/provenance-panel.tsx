@@ -55,6 +55,12 @@ export function ProvenancePanel({ map, points }: { map: MapRecord; points: MapPo
           <p>
             Method: <b>{map.method === 'ed' ? 'exact diagonalization (Lanczos)' : 'Gutzwiller mean-field'}</b> · sweep seed {map.sweep.seed ?? 0}
           </p>
+          <p data-testid="provenance-refine">
+            Refinement:{' '}
+            {map.sweep.refine && map.sweep.refine.maxDepth > 0
+              ? `depth ${map.sweep.refine.maxDepth}, where ${map.sweep.refine.on.map((c) => (c === 'label' ? 'neighbouring labels differ' : 'the fidelity susceptibility peaks')).join(' or ')}`
+              : 'none (the coarse grid only)'}
+          </p>
           <h3 className="font-semibold">Solver options</h3>
           <pre className={pre}>{JSON.stringify(map.sweep.solver ?? {}, null, 2)}</pre>
           <h3 className="font-semibold">Versions and runs</h3>
