@@ -312,46 +312,40 @@ export function buildSector(orbits: OrbitStructure, momentum: number[], table: F
       valueTable[2 * (c * order + e) + 1] = tr * ci + ti * cr;
     }
   }
+  // One pass: entries of the sector's rows fit in the orbit structure's entry count.
+  let capacity = 0;
+  for (let q = 0; q < dim; q++) capacity += rowStart[rows[q] + 1] - rowStart[rows[q]];
   const start = new Int32Array(dim + 1);
-  let extras = 0;
-  for (let q = 0; q < dim; q++) {
-    const i = rows[q];
-    let c = 0;
-    for (let k = rowStart[i]; k < rowStart[i + 1]; k++) {
-      const t = target[k];
-      if (index[t] < 0) continue;
-      if (stabilizer[t] === stabilizer[i]) c++;
-      else extras++;
-    }
-    start[q + 1] = start[q] + c;
-  }
-  const packed = new Int32Array(start[dim]);
-  const extraRow = new Int32Array(extras);
-  const extraColumn = new Int32Array(extras);
-  const extraValues = new Float64Array(2 * extras);
+  const packedAll = new Int32Array(capacity);
+  const extraRowList: number[] = [];
+  const extraColumnList: number[] = [];
+  const extraValueList: number[] = [];
   const diagonal = new Float64Array(dim);
   let p = 0;
-  let x = 0;
   for (let q = 0; q < dim; q++) {
     const i = rows[q];
+    const si = stabilizer[i];
     diagonal[q] = fullDiagonal[rankState(basis, reps[i])];
-    for (let k = rowStart[i]; k < rowStart[i + 1]; k++) {
+    for (let k = rowStart[i], end = rowStart[i + 1]; k < end; k++) {
       const t = target[k];
       const col = index[t];
       if (col < 0) continue;
       const v = coefficient[k] * order + element[k];
-      if (stabilizer[t] === stabilizer[i]) {
-        packed[p++] = (col << valueBits) | v;
+      if (stabilizer[t] === si) {
+        packedAll[p++] = (col << valueBits) | v;
       } else {
-        const ratio = Math.sqrt(popcount(stabilizer[t]) / popcount(stabilizer[i]));
-        extraRow[x] = q;
-        extraColumn[x] = col;
-        extraValues[2 * x] = ratio * valueTable[2 * v];
-        extraValues[2 * x + 1] = ratio * valueTable[2 * v + 1];
-        x++;
+        const ratio = Math.sqrt(popcount(stabilizer[t]) / popcount(si));
+        extraRowList.push(q);
+        extraColumnList.push(col);
+        extraValueList.push(ratio * valueTable[2 * v], ratio * valueTable[2 * v + 1]);
       }
     }
+    start[q + 1] = p;
   }
+  const packed = p === capacity ? packedAll : packedAll.slice(0, p);
+  const extraRow = Int32Array.from(extraRowList);
+  const extraColumn = Int32Array.from(extraColumnList);
+  const extraValues = Float64Array.from(extraValueList);
   return { momentum: [...momentum], dimension: dim, rows, rowStart: start, packed, valueBits, valueTable, extraRow, extraColumn, extraValues, diagonal, character };
 }
 
