@@ -5,7 +5,7 @@ import { db } from './db.js';
 type Call = { url: string; method: string; auth: string | null; body: unknown };
 
 /** A scripted server: each handler answers one request, in order; every request is recorded. */
-function scriptedFetch(handlers: ((c: Call) => Response)[]) {
+function scriptedFetch(handlers: ((c: Call) => Response | Promise<Response>)[]) {
   const calls: Call[] = [];
   const fn = vi.fn(async (url: string, init: RequestInit = {}) => {
     const headers = new Headers(init.headers);
@@ -66,5 +66,25 @@ describe('apiCall', () => {
     await expect(apiCall('/api/admin/mail')).rejects.toMatchObject({ status: 403, serverMessage: 'Only site admins may do this' });
     expect(calls).toHaveLength(1);
     expect((await db.session.get('current'))?.refreshToken).toBe('R1');
+  });
+
+  it('concurrent calls after a reload share one refresh (single flight); the new token is stored before any call uses it', async () => {
+    await startSession({ accessToken: 'A1', expiresIn: 900, refreshToken: 'R1', refreshExpiresAt: '2099-01-01T00:00:00Z', user });
+    forgetAccessToken();
+    const storedWhenUsed: (string | null | undefined)[] = [];
+    const answer = async () => {
+      storedWhenUsed.push((await db.session.get('current'))?.refreshToken);
+      return json(200, []);
+    };
+    const calls = scriptedFetch([
+      () => json(200, { accessToken: 'A2', expiresIn: 900, refreshToken: 'R2', refreshExpiresAt: '2099-01-01T00:00:00Z' }),
+      answer,
+      answer,
+      answer,
+    ]);
+    await Promise.all([apiCall('/api/projects'), apiCall('/api/projects/p/maps'), apiCall('/api/projects/p/reviews')]);
+    expect(calls.filter((c) => c.url === '/api/auth/refresh')).toHaveLength(1);
+    expect(calls.filter((c) => c.url !== '/api/auth/refresh').map((c) => c.auth)).toEqual(['Bearer A2', 'Bearer A2', 'Bearer A2']);
+    expect(storedWhenUsed).toEqual(['R2', 'R2', 'R2']);
   });
 });

@@ -7,7 +7,10 @@
  *
  * Refresh tokens are single use and the server revokes the whole sign-in when one is presented
  * twice, so refreshes are serialised across tabs with a Web Lock and always use the token stored
- * last (another tab may have rotated it meanwhile).
+ * last (another tab may have rotated it meanwhile). Within one tab, concurrent calls share one
+ * refresh (`refreshing`), and the new refresh token is written to Dexie before any caller continues.
+ * A reload between the server's rotation and that write is covered by the server's grace window:
+ * the old token, presented again within seconds, returns the same new one instead of counting as reuse.
  */
 import { useLiveQuery } from 'dexie-react-hooks';
 import { ApiError, authFailureReason, requestJson, type RequestOptions } from './api-client.js';

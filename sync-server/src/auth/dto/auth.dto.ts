@@ -87,7 +87,7 @@ export class TokenPairDto {
   @ApiProperty({ description: 'Seconds until the access token expires', example: 900 })
   expiresIn!: number;
 
-  @ApiProperty({ description: 'Single-use token for POST /api/auth/refresh; each refresh returns a new one' })
+  @ApiProperty({ description: 'Single-use token for POST /api/auth/refresh; each refresh returns a new one (presented again within the grace window after its rotation, while the new one is unused, it returns that same new one)' })
   refreshToken!: string;
 
   @ApiProperty({ description: 'When the refresh token expires' })
