@@ -104,4 +104,17 @@ describe('exact diagonalization in momentum sectors', () => {
     const fresh = new EdSolver({ states: 2, symmetry: 'none' }).solve(compileModel({ ...zigzag, parameters: { ...zigzag.parameters, g: 0.9 } })).result;
     expect(b.energy).toBeCloseTo(fresh.energy, 9);
   });
+
+  it('along a sweep, a warm-starting solver starts each solved sector from its previous ground state: same levels, fewer products', () => {
+    const at = (g: number) => compileModel({ ...zigzag, parameters: { ...zigzag.parameters, g } });
+    const warm = new EdSolver({ states: 2 }, true);
+    warm.solve(at(0.6));
+    const second = warm.solve(at(0.62)).result;
+    const cold = new EdSolver({ states: 2 }).solve(at(0.62)).result;
+    expect((second.extras?.symmetry as { warmStartedSectors: number }).warmStartedSectors).toBeGreaterThan(0);
+    expect(second.provenance.solver.warmStart).toBe(true);
+    expect(second.energies[0]).toBeCloseTo(cold.energies[0], 9);
+    expect(second.energies[1]).toBeCloseTo(cold.energies[1], 9);
+    expect(second.convergence.iterations).toBeLessThan(cold.convergence.iterations);
+  });
 });

@@ -28,6 +28,8 @@ export interface SectorSolveOptions {
   vectorStoreBytes: number;
   /** Absolute energy within which levels count as degenerate (keeps degenerate partners from being abandoned). */
   degeneracyWindow: (energy: number) => number;
+  /** Start vectors per sector (key: momentum joined by ','), e.g. the previous point's sector ground states along a sweep. */
+  starts?: Map<string, Float64Array>;
 }
 
 export interface SectorSummary {
@@ -61,6 +63,10 @@ export interface SectorSolveResult {
   sectorBuildMs: number;
   /** Largest sector block in bytes. */
   largestSectorBytes: number;
+  /** Lowest vector of every sector solved to convergence (key: momentum joined by ','), for warm starts. */
+  sectorVectors: Map<string, Float64Array>;
+  /** Sectors that started from a given vector. */
+  warmStarted: number;
   /** Milliseconds inside H·x on the sector blocks, and the stored entries those products visited. */
   matvecMs: number;
   matvecEntries: number;
@@ -92,6 +98,8 @@ export function solveBySectors(
   let largestSectorBytes = 0;
   let matvecMs = 0;
   let matvecEntries = 0;
+  let warmStarted = 0;
+  const sectorVectors = new Map<string, Float64Array>();
   const momenta = sectorMomenta(orbits.group);
   momenta.forEach((momentum, index) => {
     const t0 = now();
@@ -111,7 +119,12 @@ export function solveBySectors(
       matvecMs += now() - t;
       matvecEntries += entries;
     };
+    const key = momentum.join(',');
+    const given = o.starts?.get(key);
+    const start = given && given.length === 2 * sector.dimension ? given : undefined;
+    if (start) warmStarted++;
     const eig = lowestEigenpairs(matvec, sector.dimension, {
+      startVector: start,
       states: Math.min(o.states, sector.dimension),
       tolerance: o.tolerance,
       maxIterations: o.maxIterations,
@@ -136,6 +149,7 @@ export function solveBySectors(
       converged: eig.abandoned || eig.converged,
     });
     if (eig.abandoned) return;
+    if (eig.vectors[0]) sectorVectors.set(key, eig.vectors[0]);
     const found: Kept[] = eig.values.map((value, i) => ({
       value,
       vector: eig.vectors[i],
@@ -165,6 +179,8 @@ export function solveBySectors(
     largestSectorBytes,
     matvecMs,
     matvecEntries,
+    sectorVectors,
+    warmStarted,
   };
 }
 
