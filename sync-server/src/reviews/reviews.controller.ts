@@ -4,7 +4,7 @@ import type { AuthUser, ProjectAccess } from '../common/auth-user.js';
 import { CurrentAccess, CurrentUser } from '../common/decorators.js';
 import { HttpErrorBody } from '../common/http-error.js';
 import { ANY_MEMBER, ProjectRoles } from '../memberships/project-roles.guard.js';
-import { CommentDto, RequestReviewDto, ReviewDto, VerdictDto } from './dto/review.dto.js';
+import { CommentDto, MapReviewStateDto, RequestReviewDto, ReviewDto, VerdictDto } from './dto/review.dto.js';
 import { ReviewsService } from './reviews.service.js';
 
 @ApiTags('reviews')
@@ -28,6 +28,14 @@ export class ReviewsController {
   @ApiOkResponse({ type: [ReviewDto] })
   list(@CurrentAccess() access: ProjectAccess, @Param('mapId') mapId: string): Promise<ReviewDto[]> {
     return this.reviews.listForMap(access.projectId, mapId);
+  }
+
+  @Get('reviews')
+  @ProjectRoles(...ANY_MEMBER)
+  @ApiOperation({ summary: "Every map of the project with its latest review's state, reviewer, time and the map's current point count (any member)" })
+  @ApiOkResponse({ type: [MapReviewStateDto] })
+  states(@CurrentAccess() access: ProjectAccess): Promise<MapReviewStateDto[]> {
+    return this.reviews.statesForProject(access.projectId);
   }
 
   @Get('reviews/:reviewId')

@@ -8,7 +8,7 @@ import { fieldError } from '../common/errors.js';
 import { MailService } from '../mail/mail.service.js';
 import { MapsService } from '../maps/maps.service.js';
 import { SpotChecksService } from '../spot-checks/spot-checks.service.js';
-import type { CommentDto, RequestReviewDto, ReviewCommentDto, ReviewDto, VerdictDto } from './dto/review.dto.js';
+import type { CommentDto, MapReviewState, MapReviewStateDto, RequestReviewDto, ReviewCommentDto, ReviewDto, VerdictDto } from './dto/review.dto.js';
 import { reviewRequestMail } from './review-mail.js';
 
 interface ReviewRow {
@@ -32,6 +32,17 @@ const REVIEW_SELECT =
   'SELECT r.id, r.map_pk AS mapPk, m.id AS mapId, r.requested_by AS requestedBy, r.reviewer_id AS reviewerId, r.message, r.status, r.verdict_note AS verdictNote, ' +
   'r.verdict_at AS verdictAt, r.map_identity AS mapIdentity, r.points_digest AS pointsDigest, r.point_count AS pointCount, m.points_digest AS currentDigest, r.created_at AS createdAt ' +
   'FROM reviews r JOIN maps m ON m.pk = r.map_pk';
+
+/**
+ * The state of a map's latest review. Keep in step with mapReviewState in
+ * pwa/src/features/reviews/lib/review-state.ts (which decides it from a map's full review list).
+ */
+export function reviewStateOf(status: string | null, outdated: boolean): MapReviewState {
+  if (status === null) return 'none';
+  if (status === 'requested') return 'requested';
+  if (outdated) return 'outdated';
+  return status === 'approved' ? 'approved' : 'changes-requested';
+}
 
 /** Review requests, comments and verdicts on maps. */
 @Injectable()
@@ -84,6 +95,39 @@ export class ReviewsService {
     return Promise.all(rows.map((r) => this.toDto(projectId, r)));
   }
 
+  /**
+   * Every map of the project with the state of its latest review (by request time, then id), in one
+   * query, so a project's home page needs one request instead of one per map.
+   */
+  async statesForProject(projectId: string): Promise<MapReviewStateDto[]> {
+    const rows = await this.sequelize.query<{
+      mapId: string;
+      pointCount: number | string;
+      currentDigest: string;
+      reviewId: string | null;
+      status: string | null;
+      reviewedDigest: string | null;
+      reviewerId: string | null;
+      reviewerName: string | null;
+      updatedAt: Date | null;
+    }>(
+      'SELECT m.id AS mapId, m.point_count AS pointCount, m.points_digest AS currentDigest, r.id AS reviewId, r.status, r.points_digest AS reviewedDigest, ' +
+        'r.reviewer_id AS reviewerId, u.display_name AS reviewerName, r.updated_at AS updatedAt ' +
+        'FROM maps m LEFT JOIN (SELECT x.*, ROW_NUMBER() OVER (PARTITION BY x.map_pk ORDER BY x.created_at DESC, x.id DESC) AS n FROM reviews x WHERE x.project_id = ?) r ' +
+        'ON r.map_pk = m.pk AND r.n = 1 LEFT JOIN users u ON u.id = r.reviewer_id WHERE m.project_id = ? ORDER BY m.id',
+      { type: QueryTypes.SELECT, replacements: [projectId, projectId] },
+    );
+    return rows.map((r) => ({
+      mapId: r.mapId,
+      state: reviewStateOf(r.status, r.status !== 'requested' && r.reviewedDigest !== r.currentDigest),
+      reviewId: r.reviewId,
+      reviewerId: r.reviewerId,
+      reviewerName: r.reviewerName,
+      updatedAt: r.updatedAt,
+      pointCount: Number(r.pointCount),
+    }));
+  }
+
   async comment(access: ProjectAccess, userId: string, reviewId: string, body: CommentDto): Promise<ReviewDto> {
     const review = await this.get(access.projectId, reviewId);
     if (body.pointKey !== undefined) {
@@ -127,7 +171,7 @@ export class ReviewsService {
       mapIdentity: r.mapIdentity,
       pointsDigest: r.pointsDigest,
       pointCount: r.pointCount === null ? null : Number(r.pointCount),
-      outdated: r.status !== 'requested' && r.pointsDigest !== r.currentDigest,
+      outdated: r.status !== 'requested' && r.pointsDigest !== r.currentDigest, // as in statesForProject
       comments,
       spotChecks: await this.spotChecks.list(projectId, r.mapId, r.id),
       createdAt: r.createdAt,

@@ -73,3 +73,21 @@ export class ReviewDto {
   @ApiPropertyOptional({ description: 'Whether the e-mail notice went out (on request only)' }) mailSent?: boolean;
   @ApiProperty() createdAt!: Date;
 }
+
+export const MAP_REVIEW_STATES = ['none', 'requested', 'approved', 'changes-requested', 'outdated'] as const;
+export type MapReviewState = (typeof MAP_REVIEW_STATES)[number];
+
+/** Where one map of a project stands with its reviews: the state of its latest review (by request time). */
+export class MapReviewStateDto {
+  @ApiProperty({ format: 'uuid' }) mapId!: string;
+  @ApiProperty({
+    enum: MAP_REVIEW_STATES,
+    description: 'State of the latest review: an open request is "requested"; a verdict on a map that gained or changed points since is "outdated"; "none" without reviews',
+  })
+  state!: MapReviewState;
+  @ApiProperty({ nullable: true, type: String, format: 'uuid', description: 'The latest review (null: none)' }) reviewId!: string | null;
+  @ApiProperty({ nullable: true, type: String, format: 'uuid' }) reviewerId!: string | null;
+  @ApiProperty({ nullable: true, type: String }) reviewerName!: string | null;
+  @ApiProperty({ nullable: true, type: Date, description: 'When the latest review last changed (request, verdict); null: none' }) updatedAt!: Date | null;
+  @ApiProperty({ description: "The map's current number of points" }) pointCount!: number;
+}
