@@ -1,12 +1,11 @@
-import { useQueries } from '@tanstack/react-query';
 import { useLiveQuery } from 'dexie-react-hooks';
 import { useMemo } from 'react';
 import { Link, useParams } from 'react-router-dom';
 import { useMembers } from '../../features/projects/api/get-members.js';
 import { useStoredProject } from '../../features/projects/api/get-projects.js';
 import { ProjectItems, type ReviewStateInfo } from '../../features/projects/components/project-items.js';
-import { reviewsQueryOptions } from '../../features/reviews/api/get-reviews.js';
-import { REVIEW_STATE_TEXT, mapReviewState, type MapReviewState } from '../../features/reviews/lib/review-state.js';
+import { useReviewStates } from '../../features/reviews/api/get-review-states.js';
+import { REVIEW_STATE_TEXT, reviewStatesByMap, type MapReviewState } from '../../features/reviews/lib/review-state.js';
 import { useSession } from '../../lib/auth.js';
 import { db } from '../../lib/db.js';
 import { useOnlineStatus } from '../../lib/use-online-status.js';
@@ -14,23 +13,13 @@ import { useOnlineStatus } from '../../lib/use-online-status.js';
 const REVIEW_OPTIONS = (Object.keys(REVIEW_STATE_TEXT) as MapReviewState[]).map((value) => ({ value, label: REVIEW_STATE_TEXT[value] }));
 
 /**
- * Review states of the project's maps, one request per map (the server has no per-project review
- * list yet); undefined until every answer is in, or when offline / signed out.
+ * Review states of the project's maps stored on this device, from one request for the whole
+ * project; undefined while loading, or when offline / signed out.
  */
-function useReviewStates(projectId: string, enabled: boolean): Record<string, ReviewStateInfo> | undefined {
+function useProjectReviewStates(projectId: string, enabled: boolean): Record<string, ReviewStateInfo> | undefined {
   const mapIds = useLiveQuery(async () => (await db.maps.where('projectId').equals(projectId).primaryKeys()).sort(), [projectId]);
-  const results = useQueries({ queries: (enabled ? (mapIds ?? []) : []).map((id) => reviewsQueryOptions(projectId, id)) });
-  return useMemo(() => {
-    if (!enabled || mapIds === undefined || results.some((r) => r.isPending)) return undefined;
-    const out: Record<string, ReviewStateInfo> = {};
-    mapIds.forEach((id, i) => {
-      const data = results[i]?.data;
-      // A map not on the server yet (still in the outbox) answers 404: it has no review.
-      const state = data ? mapReviewState(data) : 'none';
-      out[id] = { state, text: REVIEW_STATE_TEXT[state] };
-    });
-    return out;
-  }, [enabled, mapIds, results]);
+  const states = useReviewStates(projectId, enabled);
+  return useMemo(() => (enabled && mapIds !== undefined && states.data ? reviewStatesByMap(mapIds, states.data) : undefined), [enabled, mapIds, states.data]);
 }
 
 /** /projects/:id — a server project as stored on this device (opens offline). */
@@ -42,7 +31,7 @@ export function Component() {
   const signedIn = !!session?.refreshToken;
   const members = useMembers(id, signedIn && online);
   const authors = useMemo(() => Object.fromEntries((members.data ?? []).map((m) => [m.userId, m.displayName])), [members.data]);
-  const reviewStates = useReviewStates(id, signedIn && online && !!project);
+  const reviewStates = useProjectReviewStates(id, signedIn && online && !!project);
   if (project === undefined) return <p role="status">Loading…</p>;
   if (project === null || !id) {
     return (

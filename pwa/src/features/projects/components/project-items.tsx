@@ -10,6 +10,8 @@ type Row = { kind: Kind; id: string; name: string; updatedAt: number; detail: st
 export interface ReviewStateInfo {
   state: string;
   text: string;
+  /** Shown as a tooltip (reviewer, time). */
+  detail?: string;
 }
 
 interface ProjectItemsProps {
@@ -127,7 +129,9 @@ export function ProjectItems({ projectId, authors = {}, myUserId, reviewStates, 
                 {r.method ? <span className="text-xs text-ink-600">{r.method === 'ed' ? 'ED' : 'mean-field'}</span> : null}
                 <span className="text-xs text-ink-600">by {authorName(r.ownerId)}</span>
                 {rs && rs.state !== 'none' ? (
-                  <span className={`text-xs font-semibold ${rs.state === 'approved' ? 'text-good-700' : rs.state === 'requested' ? 'text-ink-700' : 'text-amber-900'}`}>{rs.text}</span>
+                  <span className={`text-xs font-semibold ${rs.state === 'approved' ? 'text-good-700' : rs.state === 'requested' ? 'text-ink-700' : 'text-amber-900'}`} title={rs.detail}>
+                    {rs.text}
+                  </span>
                 ) : null}
                 <span className="ml-auto text-xs text-ink-500">{new Date(r.updatedAt).toLocaleString()}</span>
               </li>

@@ -70,6 +70,8 @@ export interface ReviewDto {
 
 export const reviewKeys = {
   map: (projectId: string, mapId: string) => ['projects', projectId, 'maps', mapId, 'reviews'] as const,
+  /** The latest review state of every map of a project (get-review-states.ts). */
+  project: (projectId: string) => ['projects', projectId, 'reviews'] as const,
 };
 
 export const mapPath = (projectId: string, mapId: string) => `/api/projects/${encodeURIComponent(projectId)}/maps/${encodeURIComponent(mapId)}`;

@@ -16,6 +16,7 @@ export function useGiveVerdict(projectId: string, mapId: string, reviewId: strin
   const client = useQueryClient();
   return useMutation({
     mutationFn: (input: VerdictInput) => giveVerdict(projectId, reviewId, input),
-    onSuccess: () => client.invalidateQueries({ queryKey: reviewKeys.map(projectId, mapId) }),
+    onSuccess: () =>
+      Promise.all([client.invalidateQueries({ queryKey: reviewKeys.map(projectId, mapId) }), client.invalidateQueries({ queryKey: reviewKeys.project(projectId) })]),
   });
 }

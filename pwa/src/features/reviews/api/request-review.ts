@@ -16,6 +16,7 @@ export function useRequestReview(projectId: string, mapId: string) {
   const client = useQueryClient();
   return useMutation({
     mutationFn: (input: RequestReviewInput) => requestReview(projectId, mapId, input),
-    onSuccess: () => client.invalidateQueries({ queryKey: reviewKeys.map(projectId, mapId) }),
+    onSuccess: () =>
+      Promise.all([client.invalidateQueries({ queryKey: reviewKeys.map(projectId, mapId) }), client.invalidateQueries({ queryKey: reviewKeys.project(projectId) })]),
   });
 }
