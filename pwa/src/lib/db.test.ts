@@ -57,7 +57,7 @@ describe('PhasewrightDb', () => {
     expect(Number(s2)).toBeGreaterThan(Number(s1));
   });
 
-  it('upgrades a version-1 database to v3: points gain their label and convergence fields, the outbox its entity index', async () => {
+  it('upgrades a version-1 database to v4: points gain their label and convergence fields, the outbox its entity index', async () => {
     const name = `t-${newId()}`;
     // A browser that ran the first release: only version 1, points without the v2 fields.
     const v1 = new Dexie(name);
@@ -74,7 +74,8 @@ describe('PhasewrightDb', () => {
     const db = new PhasewrightDb(name);
     opened.push(db);
     await db.open();
-    expect(db.verno).toBe(3);
+    expect(db.verno).toBe(4);
+    expect(await db.mapAliases.count()).toBe(0);
     // v3: the outbox entry is found by entity, the new tables are there and empty.
     expect(await db.outbox.where('[entity+entityId]').equals(['model', 'x']).count()).toBe(1);
     expect(await db.session.count()).toBe(0);

@@ -8,7 +8,9 @@
  *
  * Schema v3 adds the signed-in session (user profile and refresh token; the access token stays in
  * memory), a copy of the server projects for offline use, per-project sync state (the pull cursor)
- * and the conflicts a push returned.
+ * and the conflicts a push returned. Schema v4 adds map aliases: a map the server stored under
+ * another id (same identity, `storedAs` in the push answer) is re-keyed to the server's id, and the
+ * old id stays findable (lib/rekey-map.ts).
  */
 import { Dexie, type EntityTable, type Table } from 'dexie';
 import type { MapPoint, MapProvenance, ModelSpec, SweepSpec } from '@phasewright/physics-core';
@@ -161,6 +163,16 @@ export interface ConflictRecord {
   createdAt: number;
 }
 
+/** The local id a map had before it was re-keyed to the server's id (links keep working). */
+export interface MapAlias {
+  /** The old (local) map id. */
+  id: string;
+  /** The id the map has now (the server's). */
+  mapId: string;
+  projectId: string;
+  createdAt: number;
+}
+
 /** Version 1 stores (released first). */
 export const SCHEMA_V1 = {
   models: 'id, projectId, updatedAt, name',
@@ -188,6 +200,12 @@ export const SCHEMA_V3 = {
   conflicts: 'id, projectId, entityId',
 } as const;
 
+/** Version 4: aliases of re-keyed maps. */
+export const SCHEMA_V4 = {
+  ...SCHEMA_V3,
+  mapAliases: 'id, mapId',
+} as const;
+
 export class PhasewrightDb extends Dexie {
   models!: EntityTable<ModelRecord, 'id'>;
   sweeps!: EntityTable<SweepRecord, 'id'>;
@@ -200,6 +218,7 @@ export class PhasewrightDb extends Dexie {
   projects!: EntityTable<ProjectRecord, 'id'>;
   syncState!: EntityTable<SyncStateRecord, 'projectId'>;
   conflicts!: EntityTable<ConflictRecord, 'id'>;
+  mapAliases!: EntityTable<MapAlias, 'id'>;
 
   constructor(name: string = DB_NAME, options?: ConstructorParameters<typeof Dexie>[1]) {
     super(name, options);
@@ -216,6 +235,7 @@ export class PhasewrightDb extends Dexie {
           });
       });
     this.version(3).stores(SCHEMA_V3);
+    this.version(4).stores(SCHEMA_V4);
   }
 }
 

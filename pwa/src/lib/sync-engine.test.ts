@@ -1,7 +1,7 @@
 import { canonicalJson, type MapPoint } from '@phasewright/physics-core';
 import { afterEach, describe, expect, it, vi } from 'vitest';
 import { forgetAccessToken, startSession } from './auth.js';
-import { db, queueChange } from './db.js';
+import { db, pointRow, queueChange } from './db.js';
 import { applyPulled, pointsDigest, pushProject, resolveKeepMine, resolveTakeTheirs } from './sync-engine.js';
 
 const P = '11111111-1111-4111-8111-111111111111';
@@ -101,5 +101,45 @@ describe('pushProject', () => {
     await resolveTakeTheirs('annotation:again');
     expect((await db.labels.get(L))?.name).toBe('crystal');
     expect(await db.outbox.count()).toBe(0);
+  });
+
+  it("a map the server stored under another id (storedAs) is re-keyed to it: later points go there and the next pull does not show the map twice", async () => {
+    await startSession({ accessToken: 'A', expiresIn: 900, refreshToken: 'R', refreshExpiresAt: '2099-01-01T00:00:00Z', user: { id: 'u1', email: 'a@example.org', displayName: 'A', siteRole: 'member' } });
+    const S = '44444444-4444-4444-8444-444444444444';
+    const sweep = { spec: 'phasewright.sweep/1', name: 'cut', method: 'ed', model: { lattice: { kind: 'chain', size: [4] } }, axes: [{ parameter: 'V', kind: 'linear', from: 0, to: 1, points: 1502 }] };
+    await db.maps.put({ id: M, projectId: P, ownerId: 'u1', name: 'my cut', createdAt: 1, updatedAt: 1, sweepId: '', identity: 'abc', sweep: sweep as never, provenance: { coreVersion: '0' } as never, method: 'ed', lattice: 'chain', pointCount: 1502 });
+    // More points than one request carries (1500), so a second request sends the rest.
+    await db.points.bulkPut(Array.from({ length: 1502 }, (_, i) => pointRow(M, `V=${i}`, point(i))));
+    await queueChange(db, P, 'map', M);
+    const bodies: { changes: { kind: string; id: string }[] }[] = [];
+    const answers = [
+      json(200, { batchId: 'b', cursor: 4, results: [{ kind: 'map', id: M, status: 'merged', storedAs: S, points: { received: 1500, added: 1500, updated: 0, unchanged: 0, disputed: 0 } }] }),
+      json(200, { batchId: 'c', cursor: 5, results: [{ kind: 'points', id: S, status: 'merged' }] }),
+    ];
+    vi.stubGlobal('fetch', async (_url: string, init: RequestInit) => {
+      bodies.push(JSON.parse(String(init.body)) as (typeof bodies)[number]);
+      const a = answers.shift();
+      if (!a) throw new Error('no more answers');
+      return a;
+    });
+    expect(await pushProject(P)).toEqual({ pushed: 1, conflicts: 0 });
+    expect(bodies.map((b) => b.changes.map((c) => `${c.kind}:${c.id}`))).toEqual([[`map:${M}`], [`points:${S}`]]);
+    expect(await db.maps.get(M)).toBeUndefined();
+    expect(await db.maps.get(S)).toMatchObject({ name: 'my cut', pointCount: 1502 });
+    expect(await db.outbox.count()).toBe(0);
+    expect((await db.mapAliases.get(M))?.mapId).toBe(S);
+
+    // The pull brings the server's map S (with a point this device lacked): still one map.
+    await applyPulled(
+      P,
+      [
+        { seq: 4, kind: 'map', id: S, data: { spec: 'phasewright.map/1', id: 'abc', sweep, provenance: { coreVersion: '0' } }, updatedBy: 'u2', updatedAt: '2030-01-01T00:00:00Z' },
+        { seq: 5, kind: 'points', id: S, data: { points: { 'V=1502': point(1502) } } },
+      ],
+      5,
+    );
+    expect((await db.maps.where('projectId').equals(P).toArray()).map((m) => m.id)).toEqual([S]);
+    expect((await db.maps.get(S))?.pointCount).toBe(1503);
+    await Promise.all([db.mapAliases.clear(), db.runs.clear(), db.sweeps.clear()]);
   });
 });

@@ -11,6 +11,8 @@
  * - A stale edit (409) becomes a conflict record; its entity is held back until the user picks
  *   mine, theirs or an edited version on the sync page. A refused batch (400, 413, 403) marks its
  *   entries with the reason and holds them; the user can retry or discard them.
+ * - A map the server stored under the id of an existing map with the same identity (`storedAs`)
+ *   is re-keyed to that id on this device (lib/rekey-map.ts), so it is not shown twice.
  */
 import {
   canonicalJson,
@@ -36,6 +38,7 @@ import {
   type SweepRecord,
 } from './db.js';
 import { fetchAndStoreProjects } from './project-store.js';
+import { rekeyMap, rekeyTables } from './rekey-map.js';
 
 /** Entries per push batch (records; a map entry counts once, its points travel with it). */
 const BATCH_ENTRIES = 100;
@@ -61,6 +64,8 @@ interface PushResult {
   id: string;
   status: 'created' | 'updated' | 'merged' | 'unchanged';
   revision?: number;
+  /** Maps: the server already had a map of this identity under this id and merged into it. */
+  storedAs?: string;
 }
 
 interface PullChange {
@@ -195,8 +200,10 @@ export async function pushProject(projectId: string): Promise<{ pushed: number; 
 
     try {
       const results = changes.length > 0 ? await post(projectId, batchId, changes) : [];
-      for (const p of extraPoints) await post(projectId, newId(), [{ kind: 'points', id: p.mapId, data: { points: p.points } }]);
-      await db.transaction('rw', [db.outbox, db.models, db.sweeps, db.labels], async () => {
+      // Points beyond the first request go to the map the server actually stored them in.
+      const storedAs = new Map(results.filter((r) => r.kind === 'map' && r.storedAs && r.storedAs !== r.id).map((r) => [r.id, r.storedAs as string]));
+      for (const p of extraPoints) await post(projectId, newId(), [{ kind: 'points', id: storedAs.get(p.mapId) ?? p.mapId, data: { points: p.points } }]);
+      await db.transaction('rw', [db.outbox, db.models, db.sweeps, db.labels, ...rekeyTables(db)], async () => {
         for (const r of results) {
           if (r.revision === undefined) continue;
           if (r.kind === 'model') await db.models.update(r.id, { syncedRev: r.revision });
@@ -204,6 +211,7 @@ export async function pushProject(projectId: string): Promise<{ pushed: number; 
           else if (r.kind === 'annotation') await db.labels.update(r.id, { syncedRev: r.revision });
         }
         await db.outbox.bulkDelete(batch.map((e) => e.seq as number));
+        for (const [from, to] of storedAs) await rekeyMap(db, from, to);
       });
       pushed += batch.length;
     } catch (error) {

@@ -1,12 +1,13 @@
 import type { MapPoint } from '@phasewright/physics-core';
 import { useMemo, useState } from 'react';
-import { Link, useParams } from 'react-router-dom';
+import { useLiveQuery } from 'dexie-react-hooks';
+import { Link, Navigate, useParams } from 'react-router-dom';
 import { useMapPoints, useMapRecord } from '../../features/maps/api/maps.js';
 import { useStoredProject } from '../../features/projects/api/get-projects.js';
 import { useReviews } from '../../features/reviews/api/get-reviews.js';
 import { REVIEW_STATE_TEXT, mapReviewState } from '../../features/reviews/lib/review-state.js';
 import { useSession } from '../../lib/auth.js';
-import { LOCAL_PROJECT_ID, LOCAL_PROJECT_NAME } from '../../lib/db.js';
+import { db, LOCAL_PROJECT_ID, LOCAL_PROJECT_NAME } from '../../lib/db.js';
 import { pointsDigest } from '../../lib/sync-engine.js';
 import { MapView } from '../../features/maps/components/map-view.js';
 import { ExportPanel } from '../../features/maps/components/export-panel.js';
@@ -24,6 +25,8 @@ export function Component() {
   const reviews = useReviews(project?.id ?? '', id ?? '', !!project && !!session?.refreshToken);
   const reviewState = reviews.data ? mapReviewState(reviews.data) : undefined;
   const [measured, setMeasured] = useState<MeasurementRow[]>();
+  // A map re-keyed to the server's id after a push (lib/rekey-map.ts): its old address still leads to it.
+  const movedTo = useLiveQuery(async () => (map === null && id ? ((await db.mapAliases.get(id))?.mapId ?? null) : null), [map, id]);
   // The digest the server keeps for a map's point set; equal digests on two devices mean equal points.
   const digest = useMemo(() => {
     if (!rows) return undefined;
@@ -32,6 +35,7 @@ export function Component() {
     return pointsDigest(points);
   }, [rows]);
   if (map === undefined) return <p role="status">Loading…</p>;
+  if (map === null && movedTo) return <Navigate replace to={`/maps/${encodeURIComponent(movedTo)}`} />;
   if (map === null || !id) return <p>No map with this id on this device.</p>;
   return (
     <div className="space-y-5">
