@@ -35,8 +35,9 @@ function AccountArea() {
     );
   }
   return (
-    <div className="flex items-center gap-2 text-sm" data-testid="account">
-      <span className="font-semibold text-ink-900" title={session.user.email} data-testid="signed-in-user">
+    <div className="flex min-w-0 items-center gap-2 text-sm" data-testid="account">
+      {/* A long name is cut to one line so the header keeps one row at 1280 px; the tooltip has it whole. */}
+      <span className="max-w-28 truncate font-semibold text-ink-900" title={`${session.user.displayName} · ${session.user.email}`} data-testid="signed-in-user">
         {session.user.displayName}
       </span>
       {session.user.siteRole === 'admin' ? (
@@ -93,7 +94,7 @@ export function AppShell({ children }: { children: ReactNode }) {
         Skip to content
       </a>
       <header className="border-b-2 border-ink-900 bg-paper text-ink-900">
-        <div className="mx-auto flex max-w-6xl flex-wrap items-center gap-x-5 gap-y-2 px-5 py-3">
+        <div className="mx-auto flex max-w-6xl flex-wrap items-center gap-x-3 gap-y-2 px-5 py-3">
           <NavLink to="/" className="flex items-center gap-2.5 rounded-md" aria-label="Phasewright, home">
             <LogoMark size={34} />
             <span className="text-lg font-bold tracking-tight">Phasewright</span>
