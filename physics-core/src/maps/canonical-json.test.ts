@@ -71,9 +71,80 @@ describe('canonicalJson', () => {
     for (const c of cases) expect(canonicalJson(c)).toBe(reference(c));
     fc.assert(
       fc.property(fc.object({ values: [fc.double({ noNaN: true, noDefaultInfinity: true }), fc.string(), fc.boolean(), fc.constant(null)], withTypedArray: true, withNullPrototype: true }), (value) => {
-        expect(canonicalJson(value)).toBe(reference(value));
+        // fc's typed arrays may hold ±Infinity, NaN or bigints: those are refused, not written.
+        const refused = (x: unknown): boolean =>
+          ArrayBuffer.isView(x) ? Array.from(x as unknown as ArrayLike<unknown>).some((v) => typeof v !== 'number' || !Number.isFinite(v))
+            : x !== null && typeof x === 'object' ? Object.values(x).some(refused) : false;
+        if (refused(value)) expect(() => canonicalJson(value)).toThrow(CanonicalJsonError);
+        else expect(canonicalJson(value)).toBe(reference(value));
       }),
     );
+  });
+
+  // Strings of arbitrary UTF-16 code units: controls, quotes, backslashes, U+2028, paired and lone surrogates, astral characters.
+  const unit = fc.oneof(
+    fc.integer({ min: 0, max: 0xffff }),
+    fc.constantFrom(0, 0x1f, 0x22, 0x5c, 0x7f, 0x2028, 0xd800, 0xdbff, 0xdc00, 0xdfff, 0xfeff),
+    fc.integer({ min: 0x20, max: 0x7e }),
+  );
+  const anyString = fc.oneof(
+    fc.array(unit, { maxLength: 40 }).map((codes) => String.fromCharCode(...codes)),
+    fc.string({ unit: 'grapheme', maxLength: 12 }),
+    fc.string({ maxLength: 50 }), // long plain strings take the regex test
+  );
+  // Keys from a small pool (so objects share first keys and shapes) and arbitrary ones: index-like keys, "__proto__", "".
+  const key = fc.oneof(
+    fc.constantFrom('a', 'b', 'B', 'aa', 'energy', 'level', 'seed', '10', '2', '0', '01', '__proto__', '', 'é', '\u{1f600}', 'a"b', 'x\\y', 'k\n'),
+    anyString,
+  );
+  const number = fc.oneof(
+    fc.double({ noNaN: true, noDefaultInfinity: true }),
+    fc.integer(),
+    fc.constantFrom(-0, 0, 5e-324, -5e-324, 1e21, 1e-7, 1e-6, 123456789012345680000, Number.MAX_VALUE, Number.MAX_SAFE_INTEGER + 2, 0.1 + 0.2),
+  );
+  const { value: nested } = fc.letrec((tie) => ({
+    value: fc.oneof({ depthSize: 'small', withCrossShrink: true }, number, anyString, fc.boolean(), fc.constant(null), tie('array'), tie('object'), tie('wide'), tie('typed')),
+    array: fc.array(tie('value'), { maxLength: 6 }),
+    // Unsorted insertion order; undefined members are dropped; some objects have no prototype.
+    object: fc
+      .tuple(fc.array(fc.tuple(key, fc.option(tie('value'), { nil: undefined, freq: 6 })), { maxLength: 8 }), fc.boolean())
+      .map(([entries, bare]) => {
+        const o: Record<string, unknown> = bare ? (Object.create(null) as Record<string, unknown>) : {};
+        for (const [k, v] of entries) Object.defineProperty(o, k, { value: v, enumerable: true, writable: true, configurable: true });
+        return o;
+      }),
+    // Containers above the shape cache's size (joined, not concatenated).
+    wide: fc.oneof(
+      fc.array(number, { minLength: 65, maxLength: 90 }),
+      fc.uniqueArray(fc.tuple(key, fc.oneof(number, anyString, fc.constant(null))), { minLength: 65, maxLength: 80, selector: ([k]) => k }).map((entries) => Object.fromEntries(entries)),
+    ),
+    typed: fc.array(fc.double({ noNaN: true, noDefaultInfinity: true }), { maxLength: 5 }).map((a) => new Float64Array(a)),
+  }));
+
+  it('writes the same text as the plain reference writer on random nested values (property)', () => {
+    fc.assert(
+      fc.property(nested, (value) => {
+        expect(canonicalJson(value)).toBe(reference(value));
+      }),
+      { numRuns: 300 },
+    );
+    // The text is JSON, and reading it back gives a value of the same text.
+    fc.assert(
+      fc.property(nested, (value) => {
+        const text = canonicalJson(value);
+        expect(canonicalJson(JSON.parse(text))).toBe(text);
+      }),
+      { numRuns: 100 },
+    );
+  });
+
+  it('keeps shapes apart: objects with the same first key and size but other keys, and many shapes', () => {
+    const objects: Record<string, unknown>[] = [];
+    for (let i = 0; i < 40; i++) objects.push({ a: i, [`k${i % 13}`]: -i, z: i % 2 ? 'odd' : undefined });
+    for (let i = 0; i < 1500; i++) objects.push({ [`first${i}`]: i, b: [i] }); // more first keys than the cache holds
+    for (const o of [...objects, ...objects]) expect(canonicalJson(o)).toBe(reference(o));
+    expect(canonicalJson({ b: 1, 10: 2, a: 3 })).toBe('{"10":2,"a":3,"b":1}');
+    expect(canonicalJson({ b: 1, 9: 2, a: 3 })).toBe('{"9":2,"a":3,"b":1}');
   });
 
   it('refuses cycles and bigints with the JSON path', () => {

@@ -8,6 +8,10 @@
  * - NaN, ±Infinity, `undefined` inside arrays, bigints, functions and symbols are refused with
  *   the JSON path of the offending value (a hash must never depend on a silent conversion);
  * - typed arrays are written as arrays of numbers; no whitespace.
+ *
+ * Written by direct string building (`fast`), with the sorted key order of each object shape
+ * cached; anything it does not answer goes to the plain path-tracking writer (`write`), which is
+ * the definition. The test checks the two against a reference writer on random nested values.
  */
 import { PhasewrightError } from '../errors.js';
 
@@ -88,108 +92,162 @@ function write(value: unknown, path: string, out: string[], seen: Set<object>): 
   seen.delete(object);
 }
 
-/** Deeper than this, `prepare` hands over to `write` (which also detects cycles). */
+/** Deeper than this, `fast` hands over to `write` (which also detects cycles). */
 const FAST_DEPTH = 200;
 
-/** Returned by `prepare` when JSON.stringify cannot be used for a value. */
-const NOT_READY: unique symbol = Symbol('not-ready');
-/** Array-index keys: objects enumerate them first in numeric order, whatever their insertion order. */
-const INDEX_KEY = /^(?:0|[1-9][0-9]*)$/;
+/** Characters JSON.stringify escapes in a string: controls, `"`, `\\` and (lone) surrogates. */
+const NEEDS_ESCAPE = /[\u0000-\u001f"\\\ud800-\udfff]/;
+
+/** A string as JSON: written directly when nothing in it needs escaping (most keys and values), else by JSON.stringify. */
+function quote(s: string): string {
+  if (s.length > 32) return NEEDS_ESCAPE.test(s) ? JSON.stringify(s) : `"${s}"`;
+  for (let i = 0; i < s.length; i++) {
+    const c = s.charCodeAt(i);
+    if (c < 32 || c === 34 || c === 92 || (c >= 0xd800 && c <= 0xdfff)) return JSON.stringify(s);
+  }
+  return `"${s}"`;
+}
 
 /**
- * A value whose `JSON.stringify` is the canonical text of `value`: `value` itself where it already
- * is one, else a copy with object keys inserted in canonical order and typed arrays turned into
- * arrays. Such a value holds only plain objects (with no function or symbol members), plain arrays
- * without `undefined` or holes, strings, booleans, null and finite numbers (JSON.stringify writes
- * −0 as 0 and other numbers in the same shortest round-trip form as String). Anything else
- * (refused values, cycles, very deep values, objects with array-index keys out of order, class
- * instances) gives NOT_READY, and `write` takes over: JSON paths are built only on that path.
+ * The canonical member order of objects with the same own keys in the same enumeration order (a
+ * "shape": every point of a map has a few), with each key written once as `{"key":` and `,"key":`.
  */
-function prepare(value: unknown, depth: number): unknown {
+interface Shape {
+  keys: string[];
+  order: string[];
+  open: string[];
+  next: string[];
+}
+
+/** Shapes by first key, a few per first key (checked key by key); bounded, so odd inputs cannot grow it without end. */
+const shapes = new Map<string, Shape[]>();
+const MAX_FIRST_KEYS = 1024;
+const MAX_SHAPES_PER_KEY = 8;
+/** Objects with more keys than this are written without the shape cache. */
+const MAX_SHAPE_KEYS = 64;
+
+function shapeOf(keys: string[]): Shape {
+  const n = keys.length;
+  const list = shapes.get(keys[0]);
+  if (list !== undefined) {
+    search: for (let s = 0; s < list.length; s++) {
+      const known = list[s].keys;
+      if (known.length !== n) continue;
+      for (let i = 1; i < n; i++) if (known[i] !== keys[i]) continue search;
+      return list[s];
+    }
+  }
+  const order = keys.slice().sort();
+  const quoted = order.map((k) => `${quote(k)}:`);
+  const shape: Shape = { keys, order, open: quoted.map((q) => `{${q}`), next: quoted.map((q) => `,${q}`) };
+  if (list === undefined) {
+    if (shapes.size < MAX_FIRST_KEYS) shapes.set(keys[0], [shape]);
+  } else if (list.length < MAX_SHAPES_PER_KEY) list.push(shape);
+  return shape;
+}
+
+/**
+ * Large containers collect their members' texts and join them; each text is flattened while it is
+ * young (`charCodeAt` makes V8 flatten a concatenated string), so a whole map does not leave
+ * millions of string pieces for the garbage collector to move.
+ */
+function flat(text: string): string {
+  text.charCodeAt(0);
+  return text;
+}
+
+/**
+ * The canonical text of `value` by direct string building, or undefined where `write` must take
+ * over: refused values (with their JSON path), cycles and very deep values, array holes, and
+ * objects that are neither plain objects, plain arrays nor typed arrays (class instances, Dates,
+ * Maps, boxed primitives). Writes exactly what `write` writes wherever it answers.
+ */
+function fast(value: unknown, depth: number): string | undefined {
   switch (typeof value) {
     case 'string':
-    case 'boolean':
-      return value;
+      return quote(value);
     case 'number':
-      return value - value === 0 ? value : NOT_READY; // NaN and ±Infinity are not
+      return value - value === 0 ? `${value}` : undefined; // NaN and ±Infinity are not; `${-0}` is "0"
+    case 'boolean':
+      return value ? 'true' : 'false';
     case 'object':
       break;
     default:
-      return NOT_READY;
+      return undefined;
   }
-  if (value === null) return value;
-  if (depth > FAST_DEPTH) return NOT_READY;
+  if (value === null) return 'null';
+  if (depth > FAST_DEPTH) return undefined;
   const proto: unknown = Object.getPrototypeOf(value);
   if (proto === Array.prototype) {
     const array = value as unknown[];
-    if ((array as { toJSON?: unknown }).toJSON !== undefined) return NOT_READY;
-    let copy: unknown[] | undefined;
-    for (let i = 0; i < array.length; i++) {
-      const item = array[i];
-      if (item === undefined) return NOT_READY;
-      const ok = prepare(item, depth + 1);
-      if (ok === NOT_READY) return NOT_READY;
-      if (ok !== item && copy === undefined) copy = array.slice(0, i);
-      if (copy !== undefined) copy.push(ok);
+    const n = array.length;
+    if (n === 0) return '[]';
+    if (n > MAX_SHAPE_KEYS) {
+      const parts = new Array<string>(n);
+      for (let i = 0; i < n; i++) {
+        const item = array[i];
+        const text = item === undefined ? undefined : fast(item, depth + 1);
+        if (text === undefined) return undefined;
+        parts[i] = flat(text);
+      }
+      return `[${parts.join(',')}]`;
     }
-    return copy ?? array;
+    let out = '[';
+    for (let i = 0; i < n; i++) {
+      const item = array[i];
+      let text: string | undefined;
+      if (typeof item === 'number') text = item - item === 0 ? `${item}` : undefined;
+      else text = item === undefined ? undefined : fast(item, depth + 1);
+      if (text === undefined) return undefined;
+      out += i === 0 ? text : `,${text}`;
+    }
+    return `${out}]`;
   }
-  if (ArrayBuffer.isView(value) && !(value instanceof DataView)) {
+  if (proto !== Object.prototype && proto !== null) {
+    if (!ArrayBuffer.isView(value) || value instanceof DataView) return undefined;
     const view = value as unknown as ArrayLike<number | bigint>;
-    const copy: number[] = new Array<number>(view.length);
+    let out = '[';
     for (let i = 0; i < view.length; i++) {
       const item = view[i];
-      if (typeof item !== 'number' || item - item !== 0) return NOT_READY;
-      copy[i] = item;
+      if (typeof item !== 'number' || item - item !== 0) return undefined;
+      out += i === 0 ? `${item}` : `,${item}`;
     }
-    return copy;
+    return `${out}]`;
   }
-  if (proto !== Object.prototype && proto !== null) return NOT_READY;
   const record = value as Record<string, unknown>;
   const keys = Object.keys(record);
-  let sorted = true;
-  for (let i = 1; i < keys.length; i++) {
-    if (!(keys[i - 1] < keys[i])) {
-      sorted = false;
-      break;
-    }
-  }
-  if (sorted) {
-    let copy: Record<string, unknown> | undefined;
-    for (let i = 0; i < keys.length; i++) {
+  const n = keys.length;
+  if (n === 0) return '{}';
+  if (n > MAX_SHAPE_KEYS) {
+    keys.sort();
+    const parts: string[] = [];
+    for (let i = 0; i < n; i++) {
       const item = record[keys[i]];
       if (item === undefined) continue;
-      const ok = prepare(item, depth + 1);
-      if (ok === NOT_READY) return NOT_READY;
-      if (ok !== item && copy === undefined) {
-        if (keys.includes('__proto__')) return NOT_READY; // an own "__proto__" member cannot be copied by assignment
-        copy = {};
-        for (let j = 0; j < i; j++) if (record[keys[j]] !== undefined) copy[keys[j]] = record[keys[j]];
-      }
-      if (copy !== undefined) copy[keys[i]] = ok;
+      const text = fast(item, depth + 1);
+      if (text === undefined) return undefined;
+      parts.push(`${quote(keys[i])}:${flat(text)}`);
     }
-    return copy ?? record;
+    return `{${parts.join(',')}}`;
   }
-  keys.sort();
-  const copy: Record<string, unknown> = {};
-  for (let i = 0; i < keys.length; i++) {
-    const key = keys[i];
-    const c = key.charCodeAt(0);
-    if ((c >= 48 && c <= 57 && INDEX_KEY.test(key)) || key === '__proto__') return NOT_READY;
-    const item = record[key];
+  const { order, open, next } = shapeOf(keys);
+  let out = '';
+  for (let i = 0; i < n; i++) {
+    const item = record[order[i]];
     if (item === undefined) continue;
-    const ok = prepare(item, depth + 1);
-    if (ok === NOT_READY) return NOT_READY;
-    copy[key] = ok;
+    let text: string | undefined;
+    if (typeof item === 'number') text = item - item === 0 ? `${item}` : undefined;
+    else text = fast(item, depth + 1);
+    if (text === undefined) return undefined;
+    out += out === '' ? open[i] + text : next[i] + text;
   }
-  return copy;
+  return out === '' ? '{}' : `${out}}`;
 }
 
 /** The canonical JSON text of `value`; throws CanonicalJsonError (with a JSON path) on values JSON cannot hold. */
 export function canonicalJson(value: unknown): string {
-  const protoToJson = (Object.prototype as { toJSON?: unknown }).toJSON !== undefined || (Array.prototype as { toJSON?: unknown }).toJSON !== undefined;
-  const prepared = protoToJson ? NOT_READY : prepare(value, 0);
-  if (prepared !== NOT_READY) return JSON.stringify(prepared);
+  const text = fast(value, 0);
+  if (text !== undefined) return text;
   // The path-tracking writer: for values refused (it throws with the JSON path) or unusual.
   const out: string[] = [];
   write(value, '$', out, new Set());
