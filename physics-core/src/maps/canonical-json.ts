@@ -96,6 +96,7 @@ function write(value: unknown, path: string, out: string[], seen: Set<object>): 
 const FAST_DEPTH = 200;
 
 /** Characters JSON.stringify escapes in a string: controls, `"`, `\\` and (lone) surrogates. */
+// eslint-disable-next-line no-control-regex -- the control characters are what is looked for
 const NEEDS_ESCAPE = /[\u0000-\u001f"\\\ud800-\udfff]/;
 
 /** A string as JSON: written directly when nothing in it needs escaping (most keys and values), else by JSON.stringify. */

@@ -2,7 +2,7 @@ import { describe, expect, it } from 'vitest';
 import { SpecError } from '../errors.js';
 import { chainSweep, fakeSolve } from '../sweep/fake-solver.js';
 import { InProcessExecutor, runSweep } from '../sweep/run.js';
-import { parseMap, parseMapText, serializeMap, type PhaseMap } from './map-format.js';
+import { parseMap, parseMapText, parseOwnedMap, serializeMap, type PhaseMap } from './map-format.js';
 
 const runtime = { kind: 'node' as const, version: 'v20', cores: 1 };
 
@@ -56,5 +56,46 @@ describe('map format v1', () => {
     expect(() => parseMap(bad)).toThrow(
       '$.points["V=1"].parameters.V: must be a finite number; $.points["V=2"].computed.runtime.cores: must be an integer ≥ 1; $.points["V=2"].history: must be an array; $.provenance.sources[0].createdAt: must be an ISO time',
     );
+  });
+
+  it('parseOwnedMap takes the value itself, with the same checks and messages as parseMap', async () => {
+    const { map } = await runSweep(chainSweep({ refine: { maxDepth: 1, on: ['label'] } }), { executor: new InProcessExecutor(fakeSolve), runtime, author: 'ana' });
+    const json = JSON.parse(serializeMap(map)) as PhaseMap;
+    const points = json.points;
+    const owned = parseOwnedMap(json);
+    expect(owned).toBe(json);
+    expect(owned.points).toBe(points); // no copy
+    expect(owned).toEqual(parseMap(JSON.parse(serializeMap(map))));
+    expect(serializeMap(owned)).toBe(serializeMap(map));
+
+    // Every refusal is parseMap's, word for word, and leaves the value as it was.
+    const fresh = () => JSON.parse(serializeMap(map)); // untyped JSON, as a request body arrives
+    const spoil: ((m: ReturnType<typeof fresh>) => void)[] = [
+      (m) => { m.spec = 'phasewright.map/3'; },
+      (m) => { m.extra = 1; m.id = 'abc'; },
+      (m) => { m.points['V=1'].energy = 'low'; m.points['V=1'].observables.gap = [1, 'x']; },
+      (m) => { m.points['V=1'].parameters.V = null; m.points['V=2'].history = {}; },
+      (m) => { m.points['V=2'].computed.runtime.cores = 0; m.provenance.sources = []; },
+      (m) => { m.sweep.axes[0].points = 0; m.provenance.runtime.kind = 'phone'; },
+      (m) => { m.points = [1]; },
+    ];
+    for (const f of spoil) {
+      const a = fresh();
+      f(a);
+      const b = structuredClone(a);
+      const message = (g: () => unknown): string => {
+        try {
+          g();
+        } catch (error) {
+          expect(error).toBeInstanceOf(SpecError);
+          return (error as SpecError).message;
+        }
+        throw new Error('no error');
+      };
+      const expected = message(() => parseMap(b));
+      expect(message(() => parseOwnedMap(a))).toBe(expected);
+      expect(a).toEqual(b);
+    }
+    expect(() => parseOwnedMap(null)).toThrow('$: a map must be a JSON object');
   });
 });

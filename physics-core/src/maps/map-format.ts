@@ -251,8 +251,19 @@ export function parseMapText(text: string): PhaseMap {
     throw new SpecError([{ path: '$', message: `not valid JSON (${(error as Error).message})` }]);
   }
   // A value fresh from JSON.parse is nobody else's: no copy needed.
+  return parseOwnedMap(json);
+}
+
+/**
+ * `parseMap` without the deep copy, for a caller that owns `json` and hands it over (a value fresh
+ * from JSON.parse, a request body): same checks, same SpecError issues and paths. On success
+ * `json` itself is returned, with its `sweep` replaced by the parsed sweep; the caller must not
+ * keep using it as anything but the map. On error `json` is left unchanged.
+ */
+export function parseOwnedMap(json: unknown): PhaseMap {
+  const sweep = validateMap(json);
   const map = json as PhaseMap;
-  map.sweep = validateMap(json);
+  map.sweep = sweep;
   return map;
 }
 
