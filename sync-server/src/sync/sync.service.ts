@@ -5,8 +5,8 @@ import {
   canonicalJson,
   mapIdentity,
   mergeMaps,
-  parseMap,
   parseModelSpec,
+  parseOwnedMap,
   parseSweepSpec,
   type MapPoint,
   type PhaseMap,
@@ -111,7 +111,7 @@ export class SyncService {
           break;
         case 'map': {
           const before = issues.length;
-          spec(() => (p.map = parseMap(change.data)), path);
+          spec(() => (p.map = parseOwnedMap(change.data)), path); // the request body is ours: no copy
           if (issues.length > before || !p.map) break;
           issues.push(...checkIdentity(p.map, path));
           issues.push(...checkPointsOnSweep(p.map, path));
@@ -242,7 +242,7 @@ export class SyncService {
       }
       row = byId;
       try {
-        incoming = parseMap({ ...assembleMap(byId, {}), points: change.data.points });
+        incoming = parseOwnedMap({ ...assembleMap(byId, {}), points: change.data.points });
       } catch (error) {
         if (!(error instanceof SpecError)) throw error;
         issues.push(...specIssues(error, path));
