@@ -11,7 +11,7 @@ import { NodeExecutor } from '../cli/node-executor.js';
 import { nodeRuntime } from '../cli/io.js';
 import { CORE_VERSION } from '../src/index.js';
 import { canonicalJson } from '../src/maps/canonical-json.js';
-import { parseMap, type PhaseMap } from '../src/maps/map-format.js';
+import { parseMap, parseOwnedMap, type PhaseMap } from '../src/maps/map-format.js';
 import { mergeMaps } from '../src/maps/merge.js';
 import { mapIdentity } from '../src/maps/provenance.js';
 import { chainModel, chainSweep, fakeSolve } from '../src/sweep/fake-solver.js';
@@ -104,8 +104,12 @@ const best = (f: () => void, runs = 3): string => {
 };
 let fullText = '';
 const tFull = best(() => { fullText = canonicalJson(merged); });
+const points = Object.values(merged.points);
+const tPerPoint = best(() => { for (const p of points) canonicalJson(p); });
 const parsed = JSON.parse(fullText) as unknown;
 const tParse = best(() => { parseMap(parsed); });
+const owned = [0, 1, 2].map(() => JSON.parse(fullText) as unknown);
+const tOwned = best(() => { parseOwnedMap(owned.pop()); });
 // A second run of the same sweep: every point again, computed later elsewhere, energies within ED tolerance.
 const rerun: PhaseMap = structuredClone(merged);
 for (const p of Object.values(rerun.points)) {
@@ -117,6 +121,8 @@ let overlap: PhaseMap = merged;
 const tOverlap = best(() => { overlap = mergeMaps([merged, rerun]); });
 const tRemerge = best(() => { mergeMaps([overlap, merged]); });
 line('10,000-point map: canonical JSON (target < 300 ms)', `${tFull}, ${(fullText.length / 1e6).toFixed(1)} MB`);
+line('10,000-point map: canonical JSON point by point (server)', tPerPoint);
 line('10,000-point map: parseMap (target < 300 ms)', tParse);
+line('10,000-point map: parseOwnedMap (no copy)', tOwned);
 line('10,000-point map: merge with a rerun (target < 300 ms)', `${tOverlap}, ${Object.values(overlap.points).filter((p) => p.history).length} points with history`);
 line('10,000-point map: merge the merged map with a source', tRemerge);
