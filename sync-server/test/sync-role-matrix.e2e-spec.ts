@@ -86,6 +86,7 @@ describe('role matrix of map sync, reviews, spot-checks, uploads and exports', (
     { method: 'post', route: '/api/projects/{projectId}/maps/{mapId}/reviews', expect: members(201, ['editor', 'owner']), call: () => ({ path: p(`/maps/${mapId}/reviews`), body: { reviewerId: sessions.reviewer.user.id } }) },
     { method: 'get', route: '/api/projects/{projectId}/maps/{mapId}/reviews', expect: members(200, ANY), call: () => ({ path: p(`/maps/${mapId}/reviews`) }) },
     { method: 'get', route: '/api/projects/{projectId}/reviews/{reviewId}', expect: members(200, ANY), call: () => ({ path: p(`/reviews/${reviewId}`) }) },
+    { method: 'get', route: '/api/projects/{projectId}/reviews', expect: members(200, ANY), call: () => ({ path: p('/reviews') }) },
     { method: 'post', route: '/api/projects/{projectId}/reviews/{reviewId}/comments', expect: members(201, ['reviewer', 'editor', 'owner']), call: () => ({ path: p(`/reviews/${reviewId}/comments`), body: { body: 'c' } }) },
     // The owner passes the role check but is not the requested reviewer: 403 from the service.
     { method: 'post', route: '/api/projects/{projectId}/reviews/{reviewId}/verdict', expect: members(200, ['reviewer']), call: () => ({ path: p(`/reviews/${reviewId}/verdict`), body: { verdict: 'approved', note: 'ok' } }) },

@@ -112,7 +112,7 @@ describe('exact diagonalization in momentum sectors', () => {
     const second = warm.solve(at(0.62)).result;
     const cold = new EdSolver({ states: 2 }).solve(at(0.62)).result;
     expect((second.extras?.symmetry as { warmStartedSectors: number }).warmStartedSectors).toBeGreaterThan(0);
-    expect(second.provenance.solver.warmStart).toBe(true);
+    expect((second.provenance.solver as { warmStart: boolean }).warmStart).toBe(true);
     expect(second.energies[0]).toBeCloseTo(cold.energies[0], 9);
     expect(second.energies[1]).toBeCloseTo(cold.energies[1], 9);
     expect(second.convergence.iterations).toBeLessThan(cold.convergence.iterations);

@@ -11,6 +11,7 @@ import type { User } from '../users/models/user.model.js';
 import type { TokenPairDto } from './dto/auth.dto.js';
 import { RefreshToken } from './models/refresh-token.model.js';
 import { refreshReuseGraceS } from './refresh-reuse-grace.js';
+import { retryOnDeadlock } from '../database/deadlock-retry.js';
 
 /** Claims of an access token. `ver` must equal the user's token_version (bumped on password change). */
 export interface AccessClaims {
@@ -95,7 +96,9 @@ export class TokensService {
    * (family revoked) even though the request fails, hence the separate commit before throwing.
    */
   async rotate(presented: string, loadUser: (id: string, t: Transaction) => Promise<User | null>): Promise<{ user: User; tokens: TokenPairDto }> {
-    const outcome = await this.sequelize.transaction(async (transaction) => {
+    // Sign-ins and refreshes of one user at once can deadlock in InnoDB (token row, then user row,
+    // against the other order); the transaction is then simply run again.
+    const outcome = await retryOnDeadlock(() => this.sequelize.transaction(async (transaction) => {
       const row = await this.refreshTokens.findOne({
         where: { tokenHash: sha256Hex(presented) },
         transaction,
@@ -120,7 +123,7 @@ export class TokensService {
       row.usedAt = new Date();
       await row.save({ transaction });
       return { fail: undefined, user, tokens: await this.issue(user, transaction, row.familyId, this.successorOf(presented)) };
-    });
+    }));
     if (outcome.fail !== undefined) {
       const messages = {
         token_invalid: 'Refresh token is not valid (signed out or revoked); sign in again',

@@ -20,6 +20,7 @@ import { MapsService } from '../maps/maps.service.js';
 import { type BlockEntry, decodeBlock, encodeBlock, type PointBlock, type PointPlaces, placePoints, placesOf } from '../maps/point-blocks.js';
 import type { PullChange, PushResponse, PushResult } from './dto/sync.dto.js';
 import { SYNC_CONFIG, type SyncConfig } from './sync-config.js';
+import { retryOnDeadlock } from '../database/deadlock-retry.js';
 import {
   type ChangeInput,
   checkEnvelope,
@@ -37,7 +38,6 @@ type Prepared = { change: ChangeInput; index: number; map?: PhaseMap };
 
 /** Bytes of block rows per driver batch (the server's max_allowed_packet is 16 MiB). */
 const BLOCK_BYTES_PER_BATCH = 4 * 1024 * 1024;
-const DEADLOCK = /deadlock|lock wait timeout/i;
 
 /** Push and pull of a project's models, sweeps, maps, points, annotations and notes. */
 @Injectable()
@@ -73,14 +73,9 @@ export class SyncService {
     const [project] = await this.sequelize.query<{ archivedAt: Date | null }>('SELECT archived_at AS archivedAt FROM projects WHERE id = ?', { type: QueryTypes.SELECT, replacements: [access.projectId] });
     if (project?.archivedAt) throw new ConflictException({ message: 'The project is archived (read-only); an owner can unarchive it', details: { reason: 'archived' } });
     const prepared = this.prepare(input.changes);
-    for (let attempt = 1; ; attempt++) {
-      try {
-        return await this.sequelize.transaction({ isolationLevel: Transaction.ISOLATION_LEVELS.READ_COMMITTED }, (tx) => this.apply(access.projectId, userId, input.batchId, prepared, tx));
-      } catch (error) {
-        if (attempt < 4 && error instanceof Error && DEADLOCK.test(error.message)) continue;
-        throw error;
-      }
-    }
+    return retryOnDeadlock(() =>
+      this.sequelize.transaction({ isolationLevel: Transaction.ISOLATION_LEVELS.READ_COMMITTED }, (tx) => this.apply(access.projectId, userId, input.batchId, prepared, tx)),
+    );
   }
 
   /** Checks that need no database: models and sweeps by physics-core, maps by parseMap + identity + sweep domain. */

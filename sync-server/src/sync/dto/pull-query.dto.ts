@@ -10,7 +10,7 @@ export class PullQueryDto {
   @Min(0)
   after?: number;
 
-  @ApiPropertyOptional({ description: 'Rows per page (records, maps and points count one each)', default: 2000 })
+  @ApiPropertyOptional({ description: 'Page size: records and maps count one each, points one each (a page never splits a block of points, so it may exceed the limit by part of a block)', default: 2000 })
   @IsOptional()
   @Type(() => Number)
   @IsInt()
