@@ -11,15 +11,31 @@ import { gzipSync } from 'node:zlib';
 
 const screenshotDir = join(fileURLToPath(new URL('.', import.meta.url)), '..', '..', '.screenshots');
 
-/** Records the longest task of each page load in window.__pwLongest (ms). */
+/**
+ * Records the longest task of each page load in window.__pwLongest (ms), and the longest task
+ * that started after window.__pwMark (set when a sweep's page is up) in window.__pwSince.
+ */
 const LONGTASK_SCRIPT = `
-  window.__pwLongest = 0; window.__pwLongTasks = 0;
+  window.__pwLongest = 0; window.__pwLongTasks = 0; window.__pwMark = Infinity; window.__pwSince = 0;
   try {
     new PerformanceObserver((list) => {
-      for (const e of list.getEntries()) { window.__pwLongTasks++; if (e.duration > window.__pwLongest) window.__pwLongest = e.duration; }
+      for (const e of list.getEntries()) {
+        window.__pwLongTasks++;
+        if (e.duration > window.__pwLongest) window.__pwLongest = e.duration;
+        if (e.startTime >= window.__pwMark && e.duration > window.__pwSince) window.__pwSince = e.duration;
+      }
     }).observe({ type: 'longtask', buffered: true });
   } catch {}
 `;
+
+/** From now on, count long tasks as "during the sweep" (the page that runs it is rendered). */
+async function markSweepStart(page) {
+  await page.locator('[data-run-state]').first().waitFor();
+  await page.evaluate(() => {
+    window.__pwMark = performance.now();
+    window.__pwSince = 0;
+  });
+}
 
 /** @param {import('playwright-core').Page} page */
 async function fill(page, path, value) {
@@ -98,6 +114,7 @@ export const tests = [
       await page.getByText('20 coarse points').waitFor();
       await page.getByRole('button', { name: 'Create sweep and start' }).click();
       await page.waitForURL(/\/sweeps\//);
+      await markSweepStart(page);
       await page.locator('[data-testid="phase-map"] [data-point]').first().waitFor({ timeout: 20_000 });
       await screenshot('explorer-2-mf-filling');
       await waitFinished(page);
@@ -105,6 +122,7 @@ export const tests = [
       const mfCells = await page.locator('[data-testid="phase-map"] [data-point]').count();
       assert.equal(mfCells, 20, 'all 20 grid points are on the map');
       const longestMf = await page.evaluate(() => window.__pwLongest);
+      const sweepMf = await page.evaluate(() => window.__pwSince);
       await page.getByText('Mean-field (Gutzwiller product states)').waitFor();
       await screenshot('explorer-3-mf-map');
 
@@ -152,14 +170,19 @@ export const tests = [
       await page.getByText('7 coarse points').waitFor();
       await page.getByRole('button', { name: 'Create sweep and start' }).click();
       await page.waitForURL(/\/sweeps\//);
+      await markSweepStart(page);
       await waitFinished(page);
       await page.getByTestId('cut-plot').waitFor();
       await page.getByText(/Exact diagonalization on a finite cluster: zigzag, 4 unit cells, periodic boundaries/).waitFor();
       const longestEd = await page.evaluate(() => window.__pwLongest);
+      const sweepEd = await page.evaluate(() => window.__pwSince);
       await screenshot('explorer-5-ed-cut');
       const edCells = await page.locator('[data-testid="cut-plot"] circle[data-point]').count();
       assert.equal(edCells, 7);
-      console.log(`     longest main-thread task during the sweeps: mean-field ${longestMf.toFixed(0)} ms, ED ${longestEd.toFixed(0)} ms (target < 100 ms)`);
+      console.log(
+        `     longest main-thread task while the workers compute (after the sweep page is up): mean-field ${sweepMf.toFixed(0)} ms, ED ${sweepEd.toFixed(0)} ms (target < 100 ms); ` +
+          `including the page's own navigation and first render: ${longestMf.toFixed(0)} ms, ${longestEd.toFixed(0)} ms`,
+      );
 
       // 7. Reload: everything is still there (IndexedDB), including the renamed label.
       await page.reload();
@@ -174,7 +197,7 @@ export const tests = [
       assert.equal(await page.locator('[data-testid="phase-map"] [data-point]').count(), 20);
       await page.getByTestId('points-table').waitFor();
       await screenshot('explorer-7-after-reload');
-      await writeFile(join(screenshotDir, 'explorer-figures.txt'), `initial JS gzipped: ${(gz / 1024).toFixed(1)} kB\nlongest task MF: ${longestMf.toFixed(0)} ms\nlongest task ED: ${longestEd.toFixed(0)} ms\n`);
+      await writeFile(join(screenshotDir, 'explorer-figures.txt'), `initial JS gzipped: ${(gz / 1024).toFixed(1)} kB\nlongest task during the MF sweep: ${sweepMf.toFixed(0)} ms (with navigation ${longestMf.toFixed(0)} ms)\nlongest task during the ED sweep: ${sweepEd.toFixed(0)} ms (with navigation ${longestEd.toFixed(0)} ms)\n`);
     },
   },
   {
