@@ -130,4 +130,16 @@ describe('merge rules', () => {
       expect(p.history).toBeUndefined();
     }
   });
+
+  it('keeps an own "__proto__" member of a point as a member (as JSON.parse made it), not as a prototype', () => {
+    const a = singleton('meanfield', r(-1, 1));
+    const b = singleton('meanfield', r(-1.2, 4));
+    const odd = JSON.parse(`{"__proto__":{"x":1},${canonicalJson(b.points['V=1']).slice(1)}`) as MapPoint;
+    b.points['V=1'] = odd;
+    const p = mergeMaps([a, b]).points['V=1'];
+    expect(Object.getPrototypeOf(p)).toBe(Object.prototype);
+    expect(Object.prototype.hasOwnProperty.call(p, '__proto__')).toBe(true);
+    expect(canonicalJson(p)).toContain('"__proto__":{"x":1}');
+    expect(p.history?.map((s) => s.energy)).toEqual([-1]);
+  });
 });

@@ -69,6 +69,26 @@ function kept(p: MapPoint): Omit<MapPoint, 'level' | 'disputed' | 'history'> {
 }
 
 /**
+ * The merged point: `best` without its level, disputes and history, then `level` and the given
+ * lists (the same members, in the same order, as `{ ...kept(best), level, disputed?, history? }`),
+ * copied member by member instead of through a rest object and a spread.
+ */
+function mergedPoint(best: MapPoint, level: number, disputed: PointSummary[] | undefined, history: PointSummary[] | undefined): MapPoint {
+  const out = {} as Record<string, unknown>;
+  const from = best as unknown as Record<string, unknown>;
+  for (const key in from) {
+    if (key === 'level' || key === 'disputed' || key === 'history' || !Object.prototype.hasOwnProperty.call(from, key)) continue;
+    // An own "__proto__" member (JSON.parse makes one) stays a member, as a spread would keep it.
+    if (key === '__proto__') Object.defineProperty(out, key, { value: from[key], enumerable: true, writable: true, configurable: true });
+    else out[key] = from[key];
+  }
+  out.level = level;
+  if (disputed !== undefined) out.disputed = disputed;
+  if (history !== undefined) out.history = history;
+  return out as unknown as MapPoint;
+}
+
+/**
  * The primary among the inputs' primaries: least by (energy, canonical summary, canonical full
  * point). Canonical texts are written only for candidates tied so far; when the tied candidates
  * agree in everything the merged point keeps, any of them gives the same merged point.
@@ -95,25 +115,33 @@ function primary(candidates: Entry<PointSummary>[], points: MapPoint[]): number 
 export function mergePoints(points: MapPoint[], method: 'ed' | 'meanfield', options: MergeOptions = {}): MapPoint {
   if (points.length === 0) throw new MergeError('nothing to merge');
   const candidates: Entry<PointSummary>[] = points.map((p) => ({ energy: p.energy, s: summaryOf(p) }));
-  const top = candidates[primary(candidates, points)];
-  const best = points[candidates.indexOf(top)];
+  const index = primary(candidates, points);
+  const top = candidates[index];
+  const best = points[index];
   // Every other result ever seen, once: results are equal when their canonical texts are, which
   // needs equal energies, so texts are written only within groups of equal energy.
   const byEnergy = new Map<number, Entry<PointSummary>[]>();
+  const add = (e: Entry<PointSummary>) => {
+    const group = byEnergy.get(e.energy);
+    if (group) group.push(e);
+    else byEnergy.set(e.energy, [e]);
+  };
+  let level = Infinity;
   for (let k = 0; k < points.length; k++) {
     const p = points[k];
-    for (const e of [candidates[k], ...(p.disputed ?? []).map((s) => ({ energy: s.energy, s })), ...(p.history ?? []).map((s) => ({ energy: s.energy, s }))]) {
-      const group = byEnergy.get(e.energy);
-      if (group) group.push(e);
-      else byEnergy.set(e.energy, [e]);
-    }
+    add(candidates[k]);
+    if (p.disputed) for (const s of p.disputed) add({ energy: s.energy, s });
+    if (p.history) for (const s of p.history) add({ energy: s.energy, s });
+    level = Math.min(level, p.level);
   }
   const disputed: Entry<PointSummary>[] = [];
   const history: Entry<PointSummary>[] = [];
   for (const [energy, group] of byEnergy) {
     let unique = group;
-    const same = group.every((e) => canonicallyEqual(e.s, group[0].s));
-    if (same && energy === top.energy && canonicallyEqual(group[0].s, top.s)) {
+    // An entry is trivially equal to itself (most groups are one result; the primary's group holds top itself).
+    let same = true;
+    for (let i = 1; same && i < group.length; i++) same = canonicallyEqual(group[i].s, group[0].s);
+    if (same && energy === top.energy && (group[0] === top || canonicallyEqual(group[0].s, top.s))) {
       unique = []; // all equal to the primary
     } else if (same && energy !== top.energy) {
       unique = [{ energy, s: group[group.length - 1].s }]; // equal results: one, the last one's object
@@ -136,10 +164,7 @@ export function mergePoints(points: MapPoint[], method: 'ed' | 'meanfield', opti
   }
   disputed.sort(compareResults);
   history.sort(compareResults);
-  const out: MapPoint = { ...kept(best), level: Math.min(...points.map((p) => p.level)) };
-  if (disputed.length > 0) out.disputed = disputed.map((e) => e.s);
-  if (history.length > 0) out.history = history.map((e) => e.s);
-  return out;
+  return mergedPoint(best, level, disputed.length > 0 ? disputed.map((e) => e.s) : undefined, history.length > 0 ? history.map((e) => e.s) : undefined);
 }
 
 const sortedUnique = <T>(items: T[], key: (x: T) => string): T[] => {
