@@ -22,6 +22,7 @@ export interface SolveCommandOptions {
   memoryBudget?: string;
   observables?: string;
   symmetry?: string;
+  reorthogonalize?: boolean;
   supercell?: string;
   starts?: string;
   mu?: string;
@@ -89,6 +90,7 @@ export function solveCommand(file: string, opts: SolveCommandOptions): string {
       : {}),
     ...(observables ? { observables: observables as EdObservable[] } : {}),
     ...(opts.symmetry !== undefined ? { symmetry: symmetryOption(opts.symmetry) } : {}),
+    ...(opts.reorthogonalize ? { reorthogonalize: true } : {}),
   };
   const meanfield = {
     ...(opts.supercell !== undefined ? { supercell: parseSupercell(opts.supercell) } : {}),
@@ -114,6 +116,7 @@ export function registerSolve(program: Command): void {
     .option('--memory-budget <bytes>', 'ED: memory budget in bytes (default 1.5 GiB)')
     .option('--observables <list>', `ED: comma-separated subset of ${ED_OBSERVABLES.join(',')}`)
     .option('--symmetry <mode>', 'ED: auto (momentum sectors when the model is translation invariant) or none (full basis)')
+    .option('--reorthogonalize', 'ED: thick-restart Lanczos with full reorthogonalization (slower; a cross-check)')
     .option('--supercell <cells>', 'mean-field: supercell as 2x1, 2,2, sqrt3 or a JSON list of integer vectors')
     .option('--starts <n>', 'mean-field: number of starts (default 8)')
     .option('--mu <x>', 'mean-field: fixed chemical potential instead of the filling')

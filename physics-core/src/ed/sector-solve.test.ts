@@ -117,4 +117,15 @@ describe('exact diagonalization in momentum sectors', () => {
     expect(second.energies[1]).toBeCloseTo(cold.energies[1], 9);
     expect(second.convergence.iterations).toBeLessThan(cold.convergence.iterations);
   });
+
+  it('the reorthogonalized solver (thick restart, full reorthogonalization) agrees with the default recurrence, in sectors and on the full basis', () => {
+    const model = compileModel(zigzag);
+    const plain = new EdSolver({ states: 3 }).solve(model).result;
+    for (const symmetry of ['auto', 'none'] as const) {
+      const r = new EdSolver({ states: 3, symmetry, reorthogonalize: true }).solve(model).result;
+      expect(r.convergence.converged).toBe(true);
+      expect((r.provenance.solver as { reorthogonalize: boolean }).reorthogonalize).toBe(true);
+      for (let i = 0; i < 3; i++) expect(r.energies[i]).toBeCloseTo(plain.energies[i], 9);
+    }
+  });
 });

@@ -28,6 +28,8 @@ export interface SectorSolveOptions {
   vectorStoreBytes: number;
   /** Absolute energy within which levels count as degenerate (keeps degenerate partners from being abandoned). */
   degeneracyWindow: (energy: number) => number;
+  /** Thick-restart Lanczos with full reorthogonalization (no early abandoning). */
+  reorthogonalize?: boolean;
   /** Start vectors per sector (key: momentum joined by ','), e.g. the previous point's sector ground states along a sweep. */
   starts?: Map<string, Float64Array>;
 }
@@ -133,6 +135,7 @@ export function solveBySectors(
       verifyDegeneracy: o.verifyDegeneracy,
       vectorStoreBytes: o.vectorStoreBytes,
       abandonAbove: full ? highest + o.degeneracyWindow(highest) : undefined,
+      reorthogonalize: o.reorthogonalize,
     });
     iterations += eig.iterations;
     verificationIterations += eig.verificationIterations;

@@ -49,6 +49,8 @@ export interface EdOptions {
   observables?: readonly EdObservable[];
   /** After convergence, look for missed degenerate copies with a deflated second run (eigen/lowest-eigenpairs.ts). @default true */
   verifyDegeneracy?: boolean;
+  /** Thick-restart Lanczos with full reorthogonalization for every run (slower; a cross-check of the default recurrence). @default false */
+  reorthogonalize?: boolean;
   /**
    * 'auto': when H is invariant under the lattice translations of the periodic axes (checked
    * term by term), solve it in momentum sectors (symmetry/translation-sectors.ts) — a full-basis
@@ -85,6 +87,7 @@ export function checkEdOptions(options: EdOptions = {}): ResolvedEdOptions {
     observables,
     verifyDegeneracy: options.verifyDegeneracy ?? true,
     symmetry: checkSymmetry(options.symmetry),
+    reorthogonalize: options.reorthogonalize ?? false,
   };
 }
 
@@ -273,6 +276,7 @@ export class EdSolver {
           degeneracyTolerance: o.degeneracyTolerance,
           verifyDegeneracy: o.verifyDegeneracy,
           symmetry: o.symmetry,
+          reorthogonalize: o.reorthogonalize,
         },
       },
       extras,
@@ -310,6 +314,7 @@ export class EdSolver {
       startVector: start,
       verifyDegeneracy: o.verifyDegeneracy,
       vectorStoreBytes,
+      reorthogonalize: o.reorthogonalize,
     });
     this.previous = eig.vectors[0] ?? null;
     return {
@@ -389,6 +394,7 @@ export class EdSolver {
       verifyDegeneracy: o.verifyDegeneracy,
       vectorStoreBytes,
       degeneracyWindow: (e) => o.degeneracyTolerance * Math.max(1, Math.abs(e)),
+      reorthogonalize: o.reorthogonalize,
       ...(this.warmStart && this.previousSectors ? { starts: this.previousSectors } : {}),
     });
     this.previousSectors = r.sectorVectors;

@@ -26,6 +26,12 @@ export interface LowestEigenpairsOptions extends LanczosOptions {
   vectorStoreBytes?: number;
   /** Stop early when the lowest eigenvalue is clearly above this energy (plain-lanczos.ts `abandonAbove`); the result is then `abandoned`. */
   abandonAbove?: number;
+  /**
+   * Use thick-restart Lanczos with full reorthogonalization in its window (lanczos.ts) for every
+   * run instead of the three-term recurrence without it: slower, for cross-checks. `abandonAbove`
+   * is then ignored. @default false
+   */
+  reorthogonalize?: boolean;
 }
 
 export interface LowestEigenpairsResult extends LanczosResult {
@@ -55,6 +61,7 @@ export function lowestEigenpairs(
   /** Plain Lanczos, then thick restart from its lowest vector if it did not converge. */
   let abandoned = false;
   const solve = (o: LanczosOptions, wantVectors = true, abandonAbove?: number): LanczosResult => {
+    if (options.reorthogonalize) return lanczos(matvec, dimension, o);
     const first: PlainLanczosResult = plainLanczos(matvec, dimension, {
       ...o,
       vectorStoreBytes: options.vectorStoreBytes,
