@@ -5,7 +5,7 @@ import { QueryTypes, type Transaction } from 'sequelize';
 import type { Sequelize } from 'sequelize-typescript';
 import type { MapSummaryDto } from './dto/map.dto.js';
 import { assembleMap, MAP_COLUMNS, type MapRow, normaliseMapRow } from './map-rows.js';
-import { decodeBlock, type PointBlock } from './point-blocks.js';
+import { decodeBlock, decodeBlockAsync, type PointBlock } from './point-blocks.js';
 
 const UUID = /^[0-9a-f]{8}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{12}$/i;
 
@@ -43,7 +43,7 @@ export class MapsService {
       `SELECT block_no AS b, point_keys AS k, data AS d FROM map_point_blocks WHERE map_pk = ?${blockNos ? ' AND block_no IN (?)' : ''} ORDER BY block_no`,
       { type: QueryTypes.SELECT, replacements: blockNos ? [mapPk, blockNos] : [mapPk], transaction },
     );
-    return rows.map((r) => decodeBlock(Number(r.b), r.k, r.d));
+    return Promise.all(rows.map((r) => decodeBlockAsync(Number(r.b), r.k, r.d)));
   }
 
   /** Every point key of a map. */

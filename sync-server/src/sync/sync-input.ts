@@ -119,23 +119,30 @@ export function checkPointsOnSweep(map: PhaseMap, path: string): InputIssue[] {
   const issues: InputIssue[] = [];
   const axes = map.sweep.axes;
   const names = axes.map((a) => a.parameter).sort();
-  for (const [key, point] of Object.entries(map.points)) {
-    const at = `${path}.points[${JSON.stringify(key)}]`;
+  const wanted = names.join(',');
+  // Per axis, once: its parameter, ends and slack.
+  const bounds = axes.map((axis) => {
+    const [lo, hi] = axisRange(axis);
+    return { name: axis.parameter, lo, hi, slack: 1e-9 * Math.max(1, Math.abs(lo), Math.abs(hi)) };
+  });
+  for (const key in map.points) {
+    if (!Object.prototype.hasOwnProperty.call(map.points, key)) continue;
+    const point = map.points[key];
+    const at = () => `${path}.points[${JSON.stringify(key)}]`;
     const got = Object.keys(point.parameters).sort();
-    if (got.join(',') !== names.join(',')) {
-      issues.push({ path: `${at}.parameters`, message: `has parameters {${got.join(', ')}} but the sweep sweeps {${names.join(', ')}}` });
+    if (got.join(',') !== wanted) {
+      issues.push({ path: `${at()}.parameters`, message: `has parameters {${got.join(', ')}} but the sweep sweeps {${names.join(', ')}}` });
       continue;
     }
     const expected = pointKey(point.parameters);
-    if (expected !== key) issues.push({ path: at, message: `the key does not match the point's parameters (expected "${expected}")` });
-    axes.forEach((axis, a) => {
-      const v = point.parameters[axis.parameter];
-      const [lo, hi] = axisRange(axis);
-      const slack = 1e-9 * Math.max(1, Math.abs(lo), Math.abs(hi));
+    if (expected !== key) issues.push({ path: at(), message: `the key does not match the point's parameters (expected "${expected}")` });
+    for (let a = 0; a < bounds.length; a++) {
+      const { name, lo, hi, slack } = bounds[a];
+      const v = point.parameters[name];
       if (v < lo - slack || v > hi + slack) {
-        issues.push({ path: `${at}.parameters.${axis.parameter}`, message: `${axis.parameter} = ${v} lies outside the sweep (axis ${a}: ${lo} … ${hi})` });
+        issues.push({ path: `${at()}.parameters.${name}`, message: `${name} = ${v} lies outside the sweep (axis ${a}: ${lo} … ${hi})` });
       }
-    });
+    }
     if (issues.length >= 20) break;
   }
   return issues;

@@ -17,7 +17,7 @@ import type { Sequelize } from 'sequelize-typescript';
 import type { ProjectAccess } from '../common/auth-user.js';
 import { assembleMap, MAP_COLUMNS, type MapRow, normaliseMapRow, pointsDigest, pointText } from '../maps/map-rows.js';
 import { MapsService } from '../maps/maps.service.js';
-import { type BlockEntry, decodeBlock, encodeBlock, type PointBlock, type PointPlaces, placePoints, placesOf } from '../maps/point-blocks.js';
+import { type BlockEntry, decodeBlockAsync, encodeBlockAsync, type PointBlock, type PointPlaces, placePoints, placesOf } from '../maps/point-blocks.js';
 import type { PullChange, PushResponse, PushResult } from './dto/sync.dto.js';
 import { SYNC_CONFIG, type SyncConfig } from './sync-config.js';
 import { retryOnDeadlock } from '../database/deadlock-retry.js';
@@ -337,10 +337,12 @@ export class SyncService {
       part = [];
       bytes = 0;
     };
-    for (const blockNo of touched) {
-      const block = blocks.get(blockNo) as PointBlock;
-      const encoded = encodeBlock(block.entries);
-      part.push([pk, blockNo, projectId, next(), block.entries.length, encoded.keys, encoded.data]);
+    // Compressed on the thread pool, all blocks at once (in parallel with each other).
+    const encodedBlocks = await Promise.all(touched.map((blockNo) => encodeBlockAsync((blocks.get(blockNo) as PointBlock).entries)));
+    for (let i = 0; i < touched.length; i++) {
+      const blockNo = touched[i];
+      const encoded = encodedBlocks[i];
+      part.push([pk, blockNo, projectId, next(), (blocks.get(blockNo) as PointBlock).entries.length, encoded.keys, encoded.data]);
       bytes += encoded.keys.length + encoded.data.byteLength;
       if (bytes > BLOCK_BYTES_PER_BATCH) await flush();
     }
@@ -403,13 +405,14 @@ export class SyncService {
       const blockSeqs = page.flatMap((i) => (i.points === undefined ? [] : [i.seq]));
       const texts = new Map<number, PointBlock>();
       if (blockSeqs.length > 0) {
-        for (const r of await this.sequelize.query<{ seq: number; k: string; d: Buffer }>('SELECT seq, point_keys AS k, data AS d FROM map_point_blocks WHERE project_id = ? AND seq IN (?)', {
+        const rows = await this.sequelize.query<{ seq: number; k: string; d: Buffer }>('SELECT seq, point_keys AS k, data AS d FROM map_point_blocks WHERE project_id = ? AND seq IN (?)', {
           type: QueryTypes.SELECT,
           replacements: [projectId, blockSeqs],
           transaction: tx,
-        })) {
-          texts.set(Number(r.seq), decodeBlock(-1, r.k, r.d));
-        }
+        });
+        // Inflated on the thread pool, in parallel.
+        const decoded = await Promise.all(rows.map((r) => decodeBlockAsync(-1, r.k, r.d)));
+        rows.forEach((r, i) => texts.set(Number(r.seq), decoded[i]));
       }
       // Points travel as their stored canonical texts, spliced into the response text (no parse and
       // re-stringify of every point); `raw` holds them per points change.
