@@ -6,7 +6,7 @@
  *
  * Each figure also gives the CPU seconds of this process (server and client share it), which say
  * more than wall time on a shared, loaded machine. PW_BENCH_VERBOSE=1 prints the server's own
- * timings (checks, load + merge, serialise, write) as well.
+ * timings (checks; load, merge, canonical texts + hashes, write) as well.
  *
  * The server is the built one (`dist/`, emitted by tsc with decorator metadata, which Nest's
  * injection needs); the script builds physics-core and the server first. The points are TEST

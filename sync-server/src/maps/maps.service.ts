@@ -5,7 +5,7 @@ import { QueryTypes, type Transaction } from 'sequelize';
 import type { Sequelize } from 'sequelize-typescript';
 import type { MapSummaryDto } from './dto/map.dto.js';
 import { assembleMap, MAP_COLUMNS, type MapRow, normaliseMapRow } from './map-rows.js';
-import { decodeBlock, decodeBlockAsync, type PointBlock } from './point-blocks.js';
+import { decodeBlock, decodeBlockAsync, fillTexts, type PointBlock } from './point-blocks.js';
 
 const UUID = /^[0-9a-f]{8}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{4}-[0-9a-f]{12}$/i;
 
@@ -44,6 +44,24 @@ export class MapsService {
       { type: QueryTypes.SELECT, replacements: blockNos ? [mapPk, blockNos] : [mapPk], transaction },
     );
     return Promise.all(rows.map((r) => decodeBlockAsync(Number(r.b), r.k, r.d)));
+  }
+
+  /**
+   * Loads the point texts of blocks read by `directory` (their keys and hashes are not read again),
+   * inflating all of them in parallel; returns the same blocks. Only for a caller that holds the
+   * map's row lock (a push) since the directory was read: the texts must belong to those keys.
+   */
+  async withTexts(mapPk: number, blocks: PointBlock[], transaction?: Transaction): Promise<PointBlock[]> {
+    if (blocks.length === 0) return blocks;
+    const rows = await this.sequelize.query<{ b: number; d: Buffer }>('SELECT block_no AS b, data AS d FROM map_point_blocks WHERE map_pk = ? AND block_no IN (?)', {
+      type: QueryTypes.SELECT,
+      replacements: [mapPk, blocks.map((b) => b.blockNo)],
+      transaction,
+    });
+    const byNo = new Map(blocks.map((b) => [b.blockNo, b]));
+    if (rows.length !== blocks.length) throw new Error(`map ${mapPk}: ${blocks.length} blocks asked for, ${rows.length} read`);
+    await Promise.all(rows.map((r) => fillTexts(byNo.get(Number(r.b)) as PointBlock, r.d)));
+    return blocks;
   }
 
   /** Every point key of a map. */

@@ -63,6 +63,16 @@ export async function decodeBlockAsync(blockNo: number, keys: string, data: Uint
   return blockOf(blockNo, keys, await inflateRawAsync(data));
 }
 
+/**
+ * Sets the texts of a block's entries (keys and hashes already read) from its row's `data`,
+ * inflated on the thread pool.
+ */
+export async function fillTexts(block: PointBlock, data: Uint8Array): Promise<void> {
+  const texts = (await inflateRawAsync(data)).toString('utf8').split('\n');
+  if (texts.length !== block.entries.length) throw new Error(`block ${block.blockNo}: ${block.entries.length} keys but ${texts.length} texts`);
+  block.entries.forEach((e, i) => (e.text = texts[i]));
+}
+
 function blockOf(blockNo: number, keys: string, inflated: Buffer | undefined): PointBlock {
   const pairs = JSON.parse(keys) as [string, string][];
   const texts = inflated === undefined ? undefined : inflated.toString('utf8').split('\n');

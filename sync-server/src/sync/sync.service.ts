@@ -264,6 +264,7 @@ export class SyncService {
     let where: PointPlaces = new Map();
     const stored = new Map<string, string>();
     const t0 = performance.now();
+    let tLoaded = t0;
     if (row) {
       const directory = await this.maps.directory(row.pk, tx);
       where = placesOf(directory);
@@ -276,7 +277,7 @@ export class SyncService {
         else fresh = true;
       }
       if (fresh && directory.length > 0) needed.add(directory[directory.length - 1].blockNo);
-      for (const b of await this.maps.blocks(row.pk, [...needed], tx)) blocks.set(b.blockNo, b);
+      await this.maps.withTexts(row.pk, [...needed].map((no) => blocks.get(no) as PointBlock), tx);
       const points: Record<string, MapPoint> = {};
       for (const key of keys) {
         const at = where.get(key);
@@ -285,6 +286,7 @@ export class SyncService {
         stored.set(key, text);
         points[key] = JSON.parse(text) as MapPoint;
       }
+      tLoaded = performance.now();
       merged = mergeMaps([assembleMap(row, points), incoming]);
     } else {
       merged = mergeMaps([incoming]);
@@ -357,7 +359,7 @@ export class SyncService {
       );
     }
     const t3 = performance.now();
-    this.logger.verbose(`map ${change.id}: ${keys.length} points; load + merge ${(t1 - t0).toFixed(0)} ms, serialise ${(t2 - t1).toFixed(0)} ms, write ${changed.length} points in ${touched.length} blocks + digest ${(t3 - t2).toFixed(0)} ms`);
+    this.logger.verbose(`map ${change.id}: ${keys.length} points; load ${(tLoaded - t0).toFixed(0)} ms (read, inflate, parse), merge ${(t1 - tLoaded).toFixed(0)} ms, canonical texts + hashes ${(t2 - t1).toFixed(0)} ms, write ${changed.length} points in ${touched.length} blocks + digest ${(t3 - t2).toFixed(0)} ms`);
     const storedAs = row && row.id !== change.id ? row.id : undefined;
     const status = !row ? 'created' : changed.length > 0 || metadataChanged ? 'merged' : 'unchanged';
     return { kind: change.kind, id: change.id, status, ...(storedAs ? { storedAs } : {}), points: { received: keys.length, added, updated, unchanged: keys.length - added - updated, disputed } };
