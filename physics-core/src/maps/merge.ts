@@ -114,6 +114,19 @@ function primary(candidates: Entry<PointSummary>[], points: MapPoint[]): number 
 /** Merges results of one point (same key); `method` decides the rule. */
 export function mergePoints(points: MapPoint[], method: 'ed' | 'meanfield', options: MergeOptions = {}): MapPoint {
   if (points.length === 0) throw new MergeError('nothing to merge');
+  if (points.length === 2) {
+    // Common case (a stored point and a pushed one): two plain results of different energies. The
+    // general rule below gives the same: the lower is primary, the other its one confirmation
+    // (history) or, for ED beyond tolerance, its one dispute.
+    const [a, b] = points;
+    if (a.energy !== b.energy && !a.disputed && !a.history && !b.disputed && !b.history) {
+      const best = a.energy < b.energy ? a : b;
+      const other = best === a ? b : a;
+      const s = summaryOf(other);
+      const disputes = method === 'ed' && !edEnergiesAgree(other.energy, best.energy, options);
+      return mergedPoint(best, Math.min(a.level, b.level), disputes ? [s] : undefined, disputes ? undefined : [s]);
+    }
+  }
   const candidates: Entry<PointSummary>[] = points.map((p) => ({ energy: p.energy, s: summaryOf(p) }));
   const index = primary(candidates, points);
   const top = candidates[index];
