@@ -4,7 +4,7 @@ import fc from 'fast-check';
 import { chainSweep } from '../sweep/fake-solver.js';
 import { canonicalJson } from './canonical-json.js';
 import type { MapPoint, PhaseMap, RuntimeInfo } from './map-format.js';
-import { MergeError, mergeMaps, normaliseMap } from './merge.js';
+import { MergeError, mergeMaps, mergePoints, normaliseMap } from './merge.js';
 import { mapIdentity } from './provenance.js';
 
 const node: RuntimeInfo = { kind: 'node', version: 'v20.20.0', cores: 2 };
@@ -141,5 +141,15 @@ describe('merge rules', () => {
     expect(Object.prototype.hasOwnProperty.call(p, '__proto__')).toBe(true);
     expect(canonicalJson(p)).toContain('"__proto__":{"x":1}');
     expect(p.history?.map((s) => s.energy)).toEqual([-1]);
+  });
+
+  it('two plain results (the direct path) merge as by the general rule (three inputs, one repeated)', () => {
+    fc.assert(fc.property(recArb, recArb, fc.constantFrom('ed', 'meanfield') as fc.Arbitrary<'ed' | 'meanfield'>, fc.integer({ min: 0, max: 2 }), (ra, rb, method, level) => {
+      const a = point(ra);
+      const b = { ...point(rb), level };
+      const direct = canonicalJson(mergePoints([a, b], method));
+      expect(direct).toBe(canonicalJson(mergePoints([a, b, structuredClone(b)], method)));
+      expect(direct).toBe(canonicalJson(mergePoints([b, a], method)));
+    }));
   });
 });
