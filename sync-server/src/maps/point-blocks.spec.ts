@@ -1,5 +1,5 @@
 import { inflateRawSync } from 'node:zlib';
-import { decodeBlock, decodeBlockAsync, encodeBlock, encodeBlockAsync, type BlockEntry } from './point-blocks.js';
+import { decodeBlock, decodeBlockAsync, encodeBlock, encodeBlockAsync, fillTexts, type BlockEntry } from './point-blocks.js';
 
 // Texts shaped like canonical point texts (no raw newlines), with non-ASCII and escapes.
 const entries: BlockEntry[] = Array.from({ length: 250 }, (_, i) => {
@@ -25,5 +25,15 @@ describe('point blocks', () => {
     await expect(decodeBlockAsync(7, JSON.stringify([['a', 'b']]), data)).rejects.toThrow('block 7: 1 keys but 3 texts');
     expect(() => decodeBlock(7, keys, encodeBlock(entries.slice(0, 2)).data)).toThrow('block 7: 3 keys but 2 texts');
     await expect(encodeBlockAsync([{ key: 'k', hash: 'h', text: 'a\nb' }])).rejects.toThrow('point k: canonical text contains a newline');
+  });
+});
+
+describe('fillTexts', () => {
+  it('sets the texts of a directory block from its row data, and refuses a row of another length', async () => {
+    const { keys, data } = encodeBlock(entries.slice(0, 5));
+    const block = decodeBlock(2, keys);
+    await fillTexts(block, data);
+    expect(block.entries).toEqual(entries.slice(0, 5));
+    await expect(fillTexts(decodeBlock(2, keys), encodeBlock(entries.slice(0, 4)).data)).rejects.toThrow('block 2: 5 keys but 4 texts');
   });
 });
