@@ -1,4 +1,4 @@
-import { createHash } from 'node:crypto';
+import { hash } from 'node:crypto';
 import { canonicalJson, MAP_SPEC_ID, type MapPoint, type MapProvenance, type PhaseMap, type SweepSpec } from '@phasewright/physics-core';
 
 /** A row of `maps` as the services read it (JSON columns still as text). */
@@ -29,7 +29,8 @@ export function normaliseMapRow(raw: Record<string, unknown>): MapRow {
   return { ...(raw as unknown as MapRow), pk: Number(raw.pk), seq: Number(raw.seq), pointCount: Number(raw.pointCount) };
 }
 
-export const sha256 = (text: string): string => createHash('sha256').update(text, 'utf8').digest('hex');
+/** SHA-256 of the UTF-8 bytes of `text`, hex (one-shot `crypto.hash`, Node ≥ 20.12: no Hash object per point). */
+export const sha256 = (text: string): string => hash('sha256', text, 'hex');
 
 /** Stored form of a point: its canonical JSON (physics-core) and that text's SHA-256. */
 export function pointText(point: MapPoint): { text: string; hash: string } {
@@ -43,9 +44,8 @@ export function pointText(point: MapPoint): { text: string; hash: string } {
  */
 export function pointsDigest(entries: Iterable<[string, string]>): string {
   const sorted = [...entries].sort(([a], [b]) => (a < b ? -1 : a > b ? 1 : 0));
-  const h = createHash('sha256');
-  for (const [key, hash] of sorted) h.update(`${key}\t${hash}\n`, 'utf8');
-  return h.digest('hex');
+  // One string hashed at once: the same bytes as hashing line by line.
+  return sha256(sorted.map(([key, h]) => `${key}\t${h}\n`).join(''));
 }
 
 /** The PhaseMap of a stored map with the given points. */
