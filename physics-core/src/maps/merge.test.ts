@@ -152,4 +152,13 @@ describe('merge rules', () => {
       expect(direct).toBe(canonicalJson(mergePoints([b, a], method)));
     }));
   });
+
+  it('equal summaries, one point with an extra member: the canonically least full point is primary, whatever the order', () => {
+    const a = singleton('ed', r(-1, 1));
+    const d = structuredClone(a);
+    (d.points['V=1'] as unknown as Record<string, unknown>).zNote = 'kept by another client';
+    const least = [a, d].map((m) => canonicalJson(m.points['V=1'])).sort()[0];
+    expect(canonicalJson(mergeMaps([a, d]).points['V=1'])).toBe(least);
+    expect(canonicalJson(mergeMaps([d, a]).points['V=1'])).toBe(least);
+  });
 });

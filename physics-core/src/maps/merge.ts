@@ -62,22 +62,32 @@ export function edEnergiesAgree(a: number, b: number, options: MergeOptions = {}
   return Math.abs(a - b) <= Math.max(abs, rel * Math.max(Math.abs(a), Math.abs(b)));
 }
 
-/** A point without what merging replaces (its level, disputes and history). */
-function kept(p: MapPoint): Omit<MapPoint, 'level' | 'disputed' | 'history'> {
-  const { level: _l, disputed: _d, history: _h, ...rest } = p;
-  return rest;
+/** Members of a point that merging replaces (its level, disputes and history). */
+const replaced = (key: string): boolean => key === 'level' || key === 'disputed' || key === 'history';
+
+/** Whether two points agree (as canonicallyEqual) in everything merging keeps, without copying them. */
+function keptEqual(a: MapPoint, b: MapPoint): boolean {
+  const x = a as unknown as Record<string, unknown>;
+  const y = b as unknown as Record<string, unknown>;
+  let n = 0;
+  for (const key of Object.keys(x)) {
+    if (replaced(key) || x[key] === undefined) continue;
+    n++;
+    if (!Object.prototype.hasOwnProperty.call(y, key) || !canonicallyEqual(x[key], y[key], 1)) return false;
+  }
+  for (const key of Object.keys(y)) if (!replaced(key) && y[key] !== undefined) n--;
+  return n === 0;
 }
 
 /**
- * The merged point: `best` without its level, disputes and history, then `level` and the given
- * lists (the same members, in the same order, as `{ ...kept(best), level, disputed?, history? }`),
- * copied member by member instead of through a rest object and a spread.
+ * The merged point: the members of `best` but the replaced ones, then `level` and the given lists
+ * (the members and order a rest copy plus a spread would give), copied member by member.
  */
 function mergedPoint(best: MapPoint, level: number, disputed: PointSummary[] | undefined, history: PointSummary[] | undefined): MapPoint {
   const out = {} as Record<string, unknown>;
   const from = best as unknown as Record<string, unknown>;
   for (const key in from) {
-    if (key === 'level' || key === 'disputed' || key === 'history' || !Object.prototype.hasOwnProperty.call(from, key)) continue;
+    if (replaced(key) || !Object.prototype.hasOwnProperty.call(from, key)) continue;
     // An own "__proto__" member (JSON.parse makes one) stays a member, as a spread would keep it.
     if (key === '__proto__') Object.defineProperty(out, key, { value: from[key], enumerable: true, writable: true, configurable: true });
     else out[key] = from[key];
@@ -104,8 +114,8 @@ function primary(candidates: Entry<PointSummary>[], points: MapPoint[]): number 
     } else if (order === 0) tied.push(i);
   }
   if (tied.length === 1) return best;
-  const first = kept(points[tied[0]]);
-  if (tied.every((i) => canonicallyEqual(kept(points[i]), first))) return tied[0];
+  const first = points[tied[0]];
+  if (tied.every((i) => keptEqual(points[i], first))) return tied[0];
   const full = tied.map((i) => ({ i, text: canonicalJson(points[i]) }));
   full.sort((a, b) => (a.text < b.text ? -1 : a.text > b.text ? 1 : 0));
   return full[0].i;
