@@ -229,8 +229,10 @@ export interface Sector {
   rowStart: Int32Array;
   /**
    * Per entry, column << valueBits | value index into `valueTable` (coefficient × translation
-   * phase): 4 bytes per entry, the values stay in cache. Entries between orbits with different
-   * stabilizers carry an extra factor and sit in the `extra…` lists instead.
+   * phase): 4 bytes per entry, the values stay in cache. Only entries above the diagonal are kept
+   * (the block is Hermitian: the product adds v·x[c] to y[r] and conj(v)·x[r] to y[c]); hops that
+   * stay in their orbit are summed into `diagonal`. Entries between orbits with different
+   * stabilizers carry an extra factor and sit, in both directions, in the `extra…` lists instead.
    */
   packed: Int32Array;
   valueBits: number;
@@ -321,18 +323,23 @@ export function buildSector(orbits: OrbitStructure, momentum: number[], table: F
   const extraColumnList: number[] = [];
   const extraValueList: number[] = [];
   const diagonal = new Float64Array(dim);
+  const selfImaginary = new Float64Array(dim);
   let p = 0;
   for (let q = 0; q < dim; q++) {
     const i = rows[q];
     const si = stabilizer[i];
-    diagonal[q] = fullDiagonal[rankState(basis, reps[i])];
+    diagonal[q] += fullDiagonal[rankState(basis, reps[i])];
     for (let k = rowStart[i], end = rowStart[i + 1]; k < end; k++) {
       const t = target[k];
       const col = index[t];
       if (col < 0) continue;
       const v = coefficient[k] * order + element[k];
       if (stabilizer[t] === si) {
-        packedAll[p++] = (col << valueBits) | v;
+        if (col > q) packedAll[p++] = (col << valueBits) | v;
+        else if (col === q) {
+          diagonal[q] += valueTable[2 * v];
+          selfImaginary[q] += valueTable[2 * v + 1];
+        }
       } else {
         const ratio = Math.sqrt(popcount(stabilizer[t]) / popcount(si));
         extraRowList.push(q);
@@ -341,6 +348,12 @@ export function buildSector(orbits: OrbitStructure, momentum: number[], table: F
       }
     }
     start[q + 1] = p;
+  }
+  // Hops within an orbit add up to a real number (H_k is Hermitian); anything else is a bug.
+  for (let q = 0; q < dim; q++) {
+    if (Math.abs(selfImaginary[q]) > 1e-9 * (1 + Math.abs(diagonal[q]))) {
+      throw new Error(`translation sectors: the block at momentum [${momentum.join(', ')}] is not Hermitian (row ${q})`);
+    }
   }
   const packed = p === capacity ? packedAll : packedAll.slice(0, p);
   const extraRow = Int32Array.from(extraRowList);
@@ -354,11 +367,17 @@ export function sectorMatvec(sector: Sector, x: Float64Array, y: Float64Array): 
   const { rowStart, packed, valueTable, diagonal, dimension } = sector;
   const bits = sector.valueBits;
   const mask = (1 << bits) - 1;
+  for (let r = 0; r < dimension; r++) {
+    const d = diagonal[r];
+    y[2 * r] = d * x[2 * r];
+    y[2 * r + 1] = d * x[2 * r + 1];
+  }
   let k = 0;
   for (let r = 0; r < dimension; r++) {
-    const dg = diagonal[r];
-    let re = dg * x[2 * r];
-    let im = dg * x[2 * r + 1];
+    const x0r = x[2 * r];
+    const x0i = x[2 * r + 1];
+    let re = 0;
+    let im = 0;
     const end = rowStart[r + 1];
     for (; k < end; k++) {
       const e = packed[k];
@@ -370,9 +389,11 @@ export function sectorMatvec(sector: Sector, x: Float64Array, y: Float64Array): 
       const xi = x[c + 1];
       re += tr * xr - ti * xi;
       im += tr * xi + ti * xr;
+      y[c] += tr * x0r + ti * x0i;
+      y[c + 1] += tr * x0i - ti * x0r;
     }
-    y[2 * r] = re;
-    y[2 * r + 1] = im;
+    y[2 * r] += re;
+    y[2 * r + 1] += im;
   }
   const { extraRow, extraColumn, extraValues } = sector;
   for (let j = 0; j < extraRow.length; j++) {
