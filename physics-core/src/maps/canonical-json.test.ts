@@ -1,6 +1,6 @@
 import { describe, expect, it } from 'vitest';
 import fc from 'fast-check';
-import { CanonicalJsonError, canonicalJson, canonicallyEqual } from './canonical-json.js';
+import { CanonicalJsonError, canonicalJson, canonicallyEqual, insertMembers } from './canonical-json.js';
 
 describe('canonicalJson', () => {
   it('sorts keys at every depth and drops undefined members', () => {
@@ -167,5 +167,35 @@ describe('canonicalJson', () => {
     expect(canonicallyEqual({ a: -0, u: undefined }, { a: 0 })).toBe(true);
     expect(canonicallyEqual({ a: [1, 2] }, { a: [2, 1] })).toBe(false);
     expect(canonicallyEqual({ a: NaN }, { a: NaN })).toBe(false);
+  });
+});
+
+describe('insertMembers', () => {
+  // Keys and strings a text scanner could trip on: quotes, backslashes, brackets, commas, colons,
+  // non-ASCII, "__proto__", and keys sorting before, between and after the others.
+  const awkward = fc.constantFrom('a', 'b', 'energy', 'history', 'zz', '__proto__', 'q"x', 'b\\s', '{', '}', '[,]', ':', 'ü', '\u2028', '');
+  const value = fc.oneof(fc.jsonValue({ maxDepth: 3 }), fc.dictionary(awkward, fc.oneof(awkward, fc.jsonValue({ maxDepth: 2 }))), fc.array(awkward));
+  const object = fc.dictionary(fc.oneof(awkward, fc.string()), value, { maxKeys: 8 });
+  const define = (o: Record<string, unknown>, k: string, v: unknown) => Object.defineProperty(o, k, { value: v, enumerable: true, writable: true, configurable: true });
+
+  it('gives canonicalJson of the object with the new members (property, against canonicalJson)', () => {
+    fc.assert(
+      fc.property(object, object, (base, extra) => {
+        const added = Object.entries(extra).filter(([k]) => !Object.prototype.hasOwnProperty.call(base, k));
+        const whole: Record<string, unknown> = {};
+        for (const [k, v] of Object.entries(base)) define(whole, k, v);
+        for (const [k, v] of added) define(whole, k, v);
+        expect(insertMembers(canonicalJson(base), added.map(([k, v]) => [k, canonicalJson(v)]))).toBe(canonicalJson(whole));
+      }),
+      { numRuns: 400 },
+    );
+  });
+
+  it('refuses a key already there and texts that are not canonical objects', () => {
+    expect(insertMembers('{"a":1,"c":{"b":",}"}}', [['b', '[2]']])).toBe('{"a":1,"b":[2],"c":{"b":",}"}}');
+    expect(insertMembers('{}', [['b', '1'], ['a', '2']])).toBe('{"a":2,"b":1}');
+    expect(insertMembers('{"a":1}', [['a', '2']])).toBeUndefined();
+    expect(insertMembers('[1]', [['a', '2']])).toBeUndefined();
+    expect(insertMembers('{ "a": 1 }', [['b', '2']])).toBeUndefined();
   });
 });

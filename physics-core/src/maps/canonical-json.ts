@@ -302,3 +302,69 @@ function plainEqual(a: object, b: object, depth: number): boolean {
   for (const key of Object.keys(y)) if (y[key] !== undefined) n--;
   return n === 0;
 }
+
+/** Index just past the JSON string that opens at `start` (a `"`), or -1 when it does not close. */
+function stringEnd(text: string, start: number): number {
+  for (let i = start + 1; i < text.length; i++) {
+    const c = text.charCodeAt(i);
+    if (c === 92) i++; // a backslash escapes the next character
+    else if (c === 34) return i + 1;
+  }
+  return -1;
+}
+
+/**
+ * The canonical text of an object with more members, from its canonical text `text` and the new
+ * members' keys with their canonical value texts: each member is spliced in before the first
+ * member whose key sorts after it, so only the text before the last insertion point is scanned
+ * (not parsed). Returns undefined when a key is already there or `text` is not a canonical object
+ * text; the caller then writes the whole value with canonicalJson. With `text === canonicalJson(o)`
+ * and each value text `canonicalJson(v)`, the result is `canonicalJson` of `o` with those members.
+ */
+export function insertMembers(text: string, members: [key: string, valueText: string][]): string | undefined {
+  const end = text.length - 1;
+  if (text.charCodeAt(0) !== 123 || text.charCodeAt(end) !== 125) return undefined;
+  if (members.length === 0) return text;
+  const sorted = members.slice().sort(([a], [b]) => (a < b ? -1 : a > b ? 1 : 0));
+  for (let k = 1; k < sorted.length; k++) if (sorted[k][0] === sorted[k - 1][0]) return undefined;
+  const member = (k: number) => `${quote(sorted[k][0])}:${sorted[k][1]}`;
+  if (end === 1) return `{${sorted.map((_, k) => member(k)).join(',')}}`;
+  let out = '';
+  let from = 0;
+  let m = 0;
+  let i = 1;
+  while (i < end && m < sorted.length) {
+    if (text.charCodeAt(i) !== 34) return undefined;
+    const keyEnd = stringEnd(text, i);
+    if (keyEnd < 0 || text.charCodeAt(keyEnd) !== 58) return undefined;
+    const raw = text.slice(i, keyEnd);
+    const key = raw.includes('\\') ? (JSON.parse(raw) as string) : raw.slice(1, -1);
+    while (m < sorted.length && sorted[m][0] < key) {
+      out += `${text.slice(from, i)}${member(m)},`;
+      from = i;
+      m++;
+    }
+    if (m < sorted.length && sorted[m][0] === key) return undefined;
+    if (m === sorted.length) break;
+    // Past this member's value: the next comma outside strings and brackets, or the closing brace.
+    let j = keyEnd + 1;
+    let depth = 0;
+    for (; j < end; j++) {
+      const c = text.charCodeAt(j);
+      if (c === 34) {
+        const after = stringEnd(text, j);
+        if (after < 0) return undefined;
+        j = after - 1;
+      } else if (c === 123 || c === 91) depth++;
+      else if (c === 125 || c === 93) depth--;
+      else if (c === 44 && depth === 0) break;
+    }
+    if (depth !== 0 || j === keyEnd + 1) return undefined;
+    i = j + 1;
+  }
+  if (m === sorted.length) return out + text.slice(from);
+  // The rest sort after every member of the text.
+  let tail = '';
+  for (; m < sorted.length; m++) tail += `,${member(m)}`;
+  return `${out}${text.slice(from, end)}${tail}}`;
+}

@@ -2,7 +2,10 @@ import { describe, expect, it } from 'vitest';
 import { SpecError } from '../errors.js';
 import { chainSweep, fakeSolve } from '../sweep/fake-solver.js';
 import { InProcessExecutor, runSweep } from '../sweep/run.js';
-import { parseMap, parseMapText, parseOwnedMap, serializeMap, type PhaseMap } from './map-format.js';
+import fc from 'fast-check';
+import { canonicalJson } from './canonical-json.js';
+import { mergedPointText, parseMap, parseMapText, parseOwnedMap, serializeMap, type MapPoint, type PhaseMap } from './map-format.js';
+import { mergePoints } from './merge.js';
 
 const runtime = { kind: 'node' as const, version: 'v20', cores: 1 };
 
@@ -97,5 +100,45 @@ describe('map format v1', () => {
       expect(a).toEqual(b);
     }
     expect(() => parseOwnedMap(null)).toThrow('$: a map must be a JSON object');
+  });
+});
+
+describe('mergedPointText', () => {
+  const point = (energy: number, minute: number, extra: Record<string, unknown>): MapPoint => ({
+    parameters: { V: 1.5, mu: -0.25 },
+    level: minute % 3,
+    energy,
+    observables: { energyPerSite: energy / 8, densities: [0.5, 0.25, 1 / 3], structureFactor: [[Math.PI, 0, 0.125]] },
+    label: { id: 'density-wave', confidence: 0.75, evidence: { 'S(π,π)': 0.3, note: 'x,"y"}' } },
+    convergence: { converged: minute !== 3, iterations: 40 + minute, residual: 1e-11 },
+    wallMs: 12.25 + minute,
+    seed: 7 + minute,
+    computed: { at: new Date(Date.UTC(2031, 4, 6, 7, minute)).toISOString(), runtime: { kind: 'node', version: 'v20', cores: 2 }, author: 'ana' },
+    ...extra,
+  });
+  const extras = fc.constantFrom<Record<string, unknown>>({}, { warnings: ['w'] }, { aNote: { energy: 1, history: [] } }, { zNote: '},{' }, { gap: 0.5 });
+
+  it('equals canonicalJson of the merged point, stored point primary or not (property, against canonicalJson)', () => {
+    fc.assert(
+      fc.property(
+        fc.constantFrom(-1, -1 + 1e-12, -1.5, -0.5),
+        fc.constantFrom(-1, -1 + 1e-12, -1.5, -0.5),
+        fc.integer({ min: 0, max: 5 }),
+        fc.integer({ min: 0, max: 5 }),
+        extras,
+        extras,
+        fc.constantFrom('ed', 'meanfield') as fc.Arbitrary<'ed' | 'meanfield'>,
+        fc.boolean(),
+        (es, ep, ms, mp, xs, xp, method, storedHasHistory) => {
+          const original = point(es, ms, storedHasHistory ? { ...xs, history: [{ ...point(es - 0.25, 5, {}), parameters: undefined }] } : xs);
+          const storedText = canonicalJson(original);
+          const stored = JSON.parse(storedText) as MapPoint; // as the server reads it back
+          const merged = mergePoints([stored, point(ep, mp, xp)], method);
+          expect(mergedPointText(merged, stored, storedText)).toBe(canonicalJson(merged));
+          expect(mergedPointText(stored, stored, storedText)).toBe(storedText);
+        },
+      ),
+      { numRuns: 300 },
+    );
   });
 });

@@ -1,5 +1,5 @@
 import { hash } from 'node:crypto';
-import { canonicalJson, MAP_SPEC_ID, type MapPoint, type MapProvenance, type PhaseMap, type SweepSpec } from '@phasewright/physics-core';
+import { canonicalJson, MAP_SPEC_ID, type MapPoint, type MapProvenance, mergedPointText, type PhaseMap, type SweepSpec } from '@phasewright/physics-core';
 
 /** A row of `maps` as the services read it (JSON columns still as text). */
 export interface MapRow {
@@ -32,10 +32,14 @@ export function normaliseMapRow(raw: Record<string, unknown>): MapRow {
 /** SHA-256 of the UTF-8 bytes of `text`, hex (one-shot `crypto.hash`, Node ≥ 20.12: no Hash object per point). */
 export const sha256 = (text: string): string => hash('sha256', text, 'hex');
 
-/** Stored form of a point: its canonical JSON (physics-core) and that text's SHA-256. */
-export function pointText(point: MapPoint): { text: string; hash: string } {
-  const text = canonicalJson(point);
-  return { text, hash: sha256(text) };
+/**
+ * Stored form of a point: its canonical JSON (physics-core; the stored hash is its SHA-256).
+ * The canonical text of a merged point (as canonicalJson), written from the stored point's text
+ * when the merge kept the stored point and only added disputes or history (physics-core's
+ * mergedPointText): `stored` must be the object JSON.parse made of `storedText`.
+ */
+export function mergedText(point: MapPoint, stored: MapPoint | undefined, storedText: string | undefined): string {
+  return stored === undefined || storedText === undefined ? canonicalJson(point) : mergedPointText(point, stored, storedText);
 }
 
 /**

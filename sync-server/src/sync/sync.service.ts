@@ -15,7 +15,7 @@ import {
 import { QueryTypes, Transaction } from 'sequelize';
 import type { Sequelize } from 'sequelize-typescript';
 import type { ProjectAccess } from '../common/auth-user.js';
-import { assembleMap, MAP_COLUMNS, type MapRow, normaliseMapRow, pointsDigest, pointText } from '../maps/map-rows.js';
+import { assembleMap, MAP_COLUMNS, type MapRow, mergedText, normaliseMapRow, pointsDigest, sha256 } from '../maps/map-rows.js';
 import { MapsService } from '../maps/maps.service.js';
 import { type BlockEntry, decodeBlockAsync, encodeBlockAsync, type PointBlock, type PointPlaces, placePoints, placesOf } from '../maps/point-blocks.js';
 import type { PullChange, PushResponse, PushResult } from './dto/sync.dto.js';
@@ -263,6 +263,8 @@ export class SyncService {
     const blocks = new Map<number, PointBlock>();
     let where: PointPlaces = new Map();
     const stored = new Map<string, string>();
+    // The stored points of the pushed keys, parsed from those texts.
+    let storedPoints: Record<string, MapPoint> = {};
     const t0 = performance.now();
     let tLoaded = t0;
     if (row) {
@@ -287,6 +289,7 @@ export class SyncService {
         points[key] = JSON.parse(text) as MapPoint;
       }
       tLoaded = performance.now();
+      storedPoints = points;
       merged = mergeMaps([assembleMap(row, points), incoming]);
     } else {
       merged = mergeMaps([incoming]);
@@ -314,9 +317,10 @@ export class SyncService {
     const changed: BlockEntry[] = [];
     for (const key of keys) {
       const point = merged.points[key];
-      const { text, hash } = pointText(point);
       const before = stored.get(key);
+      const text = mergedText(point, storedPoints[key], before);
       if (before === text) continue;
+      const hash = sha256(text);
       if (before === undefined) added++;
       else updated++;
       if (point.disputed?.length) disputed++;
