@@ -147,8 +147,12 @@ describe('passwords and tokens never appear in responses or logs', () => {
     keep('sign-in (wrong)', await request(t.http).post('/api/auth/sign-in').send({ email: 'sec.owner@example.org', password: pw.wrong }).expect(401));
     let s: Session = keep('sign-in', await request(t.http).post('/api/auth/sign-in').send({ email: 'sec.owner@example.org', password: pw.owner }).expect(200)).body;
     const rotated = keep('refresh', await request(t.http).post('/api/auth/refresh').send({ refreshToken: s.refreshToken }).expect(200)).body;
+    // A retry inside the grace window (PW_REFRESH_REUSE_GRACE_S) gets the same successor again …
+    keep('refresh retry (grace)', await request(t.http).post('/api/auth/refresh').send({ refreshToken: s.refreshToken }).expect(200));
+    const next = keep('refresh (successor)', await request(t.http).post('/api/auth/refresh').send({ refreshToken: rotated.refreshToken }).expect(200)).body;
+    // … and once the successor has been used, presenting the old token again is reuse.
     keep('refresh reuse', await request(t.http).post('/api/auth/refresh').send({ refreshToken: s.refreshToken }).expect(401));
-    secrets.push(s.refreshToken, rotated.refreshToken, s.accessToken);
+    secrets.push(s.refreshToken, rotated.refreshToken, next.refreshToken, next.accessToken, s.accessToken);
     const changed = keep('change password', await request(t.http).post('/api/auth/password/change').set('authorization', bearer(s)).send({ currentPassword: pw.owner, newPassword: pw.newOwner }).expect(200)).body as Session;
     secrets.push(changed.refreshToken, changed.accessToken);
     keep('forgot', await request(t.http).post('/api/auth/password/forgot').send({ email: 'sec.owner@example.org' }).expect(202));
@@ -179,7 +183,7 @@ describe('passwords and tokens never appear in responses or logs', () => {
     for (const secret of [...secrets, ...hashes]) expect(log).not.toContain(secret);
 
     // Responses carry a refresh/access token only where one is issued; passwords, hashes, reset and invitation tokens never.
-    const issuing = new Set(['sign-in', 'refresh', 'change password', 'register', 'accept']);
+    const issuing = new Set(['sign-in', 'refresh', 'refresh retry (grace)', 'refresh (successor)', 'change password', 'register', 'accept']);
     for (const { route, text } of bodies) {
       for (const secret of [...Object.values(pw), 'kestrel-orbit-6006', resetToken, invitationToken, ...hashes]) {
         expect(`${route}: ${text.includes(secret)}`).toBe(`${route}: false`);
