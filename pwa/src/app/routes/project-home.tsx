@@ -55,7 +55,7 @@ export function Component() {
             Members
           </Link>
           {canEdit ? (
-            <Link to={`/models/new?project=${id}`} className="rounded-md bg-accent-600 px-3.5 py-2 text-white hover:bg-accent-700">
+            <Link to={`/models/new?project=${id}`} className="rounded-md bg-accent-600 px-3.5 py-2 text-white hover:bg-accent-700 dark:hover:bg-accent-300">
               New model
             </Link>
           ) : null}

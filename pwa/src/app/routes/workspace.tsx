@@ -13,7 +13,7 @@ export function Component() {
           <h1 className="text-2xl font-bold tracking-tight text-ink-900">{LOCAL_PROJECT_NAME}</h1>
           <p className="mt-1 text-sm text-ink-700">Kept in this browser only, never sent to a server; works signed out and offline.</p>
         </div>
-        <Link to="/models/new" className="rounded-md bg-accent-600 px-3.5 py-2 text-sm font-semibold text-white hover:bg-accent-700">
+        <Link to="/models/new" className="rounded-md bg-accent-600 px-3.5 py-2 text-sm font-semibold text-white hover:bg-accent-700 dark:hover:bg-accent-300">
           New model
         </Link>
       </div>
