@@ -18,7 +18,7 @@ import { bondCurrents } from '../observables/currents.js';
 import { plaquetteObservables } from '../observables/plaquettes.js';
 import { classifyPoint } from '../classify/phases.js';
 import { compileDiagonalTerms, compileDirectedMoves, fillCoefficients, structureKey } from '../operators/directed-terms.js';
-import { buildFixedNumberBasis, type FixedNumberBasis } from '../hilbert/fixed-number-basis.js';
+import { binomial, buildFixedNumberBasis, type FixedNumberBasis } from '../hilbert/fixed-number-basis.js';
 import { fillDiagonalSplit } from '../operators/matrix-free.js';
 import { buildOrbitStructure, estimateOrbitBytes, translationGroup, type OrbitStructure } from '../symmetry/translation-sectors.js';
 import { solveBySectors, type SectorSummary } from './sector-solve.js';
@@ -162,7 +162,7 @@ export class EdSolver {
 
   solve(model: CompiledModel): EdSolution {
     const o = this.options;
-    const dimension = binomialDimension(model);
+    const dimension = binomial(model.nSites, model.nParticles);
     // A Hilbert space smaller than the requested number of states (e.g. N = 0) gives all its states.
     const states = Math.min(o.states, dimension);
     const lanczosOptions = checkLanczosOptions(dimension, {
@@ -290,7 +290,7 @@ export class EdSolver {
   /** Full fixed-number basis: one operator (CSR or matrix-free), warm starts honoured. */
   private solveFull(model: CompiledModel, states: number, lanczosOptions: ReturnType<typeof checkLanczosOptions>): Eigen {
     const o = this.options;
-    const dimension = binomialDimension(model);
+    const dimension = binomial(model.nSites, model.nParticles);
     // Memory check before anything is allocated.
     const reserved = estimateLanczosBytes(dimension, lanczosOptions.windowSize, states);
     const operatorOptions = { storage: o.storage, memoryBudgetBytes: o.memoryBudgetBytes, reservedBytes: reserved };
@@ -453,13 +453,6 @@ export function solveEd(model: CompiledModel, options: EdOptions = {}): Result {
   return new EdSolver(options).solve(model).result;
 }
 
-function binomialDimension(model: CompiledModel): number {
-  let r = 1;
-  const n = model.nSites;
-  const k = Math.min(model.nParticles, n - model.nParticles);
-  for (let i = 1; i <= k; i++) r = (r * (n - k + i)) / i;
-  return Math.round(r);
-}
 
 function now(): number {
   return globalThis.performance ? globalThis.performance.now() : Date.now();

@@ -1,4 +1,5 @@
 import type { FixedNumberBasis } from '../hilbert/fixed-number-basis.js';
+import { permuteMask } from '../symmetry/translation-sectors.js';
 
 /**
  * The state observables are taken in: one ground state, or an equal-weight average over a
@@ -19,17 +20,11 @@ export interface StateManifold {
 /** Per manifold, expectations already computed, keyed by the orbit's canonical (check, want, flip). */
 const known = new WeakMap<StateManifold, Map<string, [number, number]>>();
 
-function permuteMask(perm: Int32Array, mask: number): number {
-  let out = 0;
-  for (let rest = mask; rest !== 0; rest &= rest - 1) out |= 1 << perm[31 - Math.clz32(rest & -rest)];
-  return out >>> 0;
-}
-
 /** The smallest image of (check, want, flip) under the permutations, as a key. */
 function canonicalKey(perms: Int32Array[], check: number, want: number, flip: number): string {
   let best: [number, number, number] = [check >>> 0, want >>> 0, flip >>> 0];
   for (const g of perms) {
-    const c: [number, number, number] = [permuteMask(g, check), permuteMask(g, want), permuteMask(g, flip)];
+    const c: [number, number, number] = [permuteMask(g, check) >>> 0, permuteMask(g, want) >>> 0, permuteMask(g, flip) >>> 0];
     if (c[0] < best[0] || (c[0] === best[0] && (c[1] < best[1] || (c[1] === best[1] && c[2] < best[2])))) best = c;
   }
   return best.join(':');

@@ -119,19 +119,27 @@ export function csrMatvec(
   x: Float64Array,
   y: Float64Array,
 ): void {
-  if (csr.packed) packedMatvec(csr.rowStart, csr.packed, table, diagonal, x, y);
+  if (csr.packed) packedHermitianMatvec(csr.rowStart, csr.packed, 8, table, diagonal, x, y);
   else splitMatvec(csr.rowStart, csr.column as Int32Array, csr.coefficient as Uint32Array, table, diagonal, x, y);
 }
 
-function packedMatvec(
+/**
+ * y = (D + A + A†) x from the upper triangle A, each stored element packed as
+ * column << bits | coefficient index (interleaved complex `table`): y[r] += t·x[c] and
+ * y[c] += conj(t)·x[r]. Shared by the full-basis CSR (8 index bits) and the momentum-sector
+ * blocks (symmetry/translation-sectors.ts).
+ */
+export function packedHermitianMatvec(
   rowStart: Int32Array,
   packed: Int32Array,
+  bits: number,
   table: Float64Array,
   diagonal: Float64Array,
   x: Float64Array,
   y: Float64Array,
 ): void {
   const n = diagonal.length;
+  const mask = (1 << bits) - 1;
   initialize(diagonal, x, y);
   let k = 0;
   for (let r = 0; r < n; r++) {
@@ -142,8 +150,8 @@ function packedMatvec(
     const end = rowStart[r + 1];
     for (; k < end; k++) {
       const p = packed[k];
-      const c = (p >>> 8) << 1;
-      const q = (p & 255) << 1;
+      const c = (p >>> bits) << 1;
+      const q = (p & mask) << 1;
       const tr = table[q];
       const ti = table[q + 1];
       const xr = x[c];

@@ -10,6 +10,7 @@ import {
   buildSector,
   expandSectorVector,
   sectorMatvec,
+  permuteState,
   sectorMomenta,
   translationGroup,
   type TranslationGroup,
@@ -174,9 +175,7 @@ function expectBloch(group: TranslationGroup, basis: ReturnType<typeof buildFixe
     let worst = 0;
     for (let r = 0; r < basis.dimension; r++) {
       const s = basis.states[r];
-      const b = e << 10;
-      const t =
-        (group.tables[b + (s & 255)] | group.tables[b + 256 + ((s >>> 8) & 255)] | group.tables[b + 512 + ((s >>> 16) & 255)] | group.tables[b + 768 + (s >>> 24)]) >>> 0;
+      const t = permuteState(group, e, s);
       const q = basis.offsetOfHigh[t >>> basis.nLow] + basis.rankOfLow[t & basis.lowMask];
       const wr = cr * psi[2 * r] - ci * psi[2 * r + 1];
       const wi = cr * psi[2 * r + 1] + ci * psi[2 * r];

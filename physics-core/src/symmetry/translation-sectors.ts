@@ -1,6 +1,7 @@
 import type { CompiledModel } from '../model/types.js';
 import { popcount32 as popcount, rankState, type FixedNumberBasis } from '../hilbert/fixed-number-basis.js';
 import type { DiagonalTerms, DirectedMoves } from '../operators/directed-terms.js';
+import { packedHermitianMatvec } from '../operators/csr-complex.js';
 
 /**
  * Lattice translations as a symmetry of H, and H block-diagonalized into momentum sectors.
@@ -87,11 +88,6 @@ export function translationGroup(model: CompiledModel, moves: DirectedMoves, tab
   for (let t = 0; t < diagonal.count; t++) diag.set(diagonal.mask[t], (diag.get(diagonal.mask[t]) ?? 0) + diagonal.value[t]);
   const scale = Math.max(1, ...[...hop.values()].map(([re, im]) => Math.hypot(re, im)), ...[...diag.values()].map(Math.abs));
   const tol = 1e-12 * scale;
-  const permuteMask = (perm: Int32Array, mask: number): number => {
-    let out = 0;
-    for (let i = 0; i < perm.length; i++) if ((mask >>> i) & 1) out |= 1 << perm[i];
-    return out | 0;
-  };
   // One generator per axis suffices: every element is a product of generators.
   for (let a = 0; a < d; a++) {
     let e = 1;
@@ -125,6 +121,18 @@ export function translationGroup(model: CompiledModel, moves: DirectedMoves, tab
     }
   }
   return { group: { axes, lengths, order, shifts, tables, sitePermutations: perms } };
+}
+
+/** The image of a site mask (bit i = site i) under a site permutation, as a signed 32-bit integer like the move masks. */
+export function permuteMask(perm: Int32Array, mask: number): number {
+  let out = 0;
+  for (let rest = mask; rest !== 0; rest &= rest - 1) out |= 1 << perm[31 - Math.clz32(rest & -rest)];
+  return out | 0;
+}
+
+/** The basis state T_e s (unsigned), through the element's byte tables. */
+export function permuteState(group: TranslationGroup, e: number, s: number): number {
+  return permute(group.tables, e, s);
 }
 
 function permute(tables: Int32Array, e: number, s: number): number {
@@ -364,37 +372,7 @@ export function buildSector(orbits: OrbitStructure, momentum: number[], table: F
 
 /** y = H_k x on a sector (interleaved complex; x and y must not alias). */
 export function sectorMatvec(sector: Sector, x: Float64Array, y: Float64Array): void {
-  const { rowStart, packed, valueTable, diagonal, dimension } = sector;
-  const bits = sector.valueBits;
-  const mask = (1 << bits) - 1;
-  for (let r = 0; r < dimension; r++) {
-    const d = diagonal[r];
-    y[2 * r] = d * x[2 * r];
-    y[2 * r + 1] = d * x[2 * r + 1];
-  }
-  let k = 0;
-  for (let r = 0; r < dimension; r++) {
-    const x0r = x[2 * r];
-    const x0i = x[2 * r + 1];
-    let re = 0;
-    let im = 0;
-    const end = rowStart[r + 1];
-    for (; k < end; k++) {
-      const e = packed[k];
-      const c = (e >>> bits) << 1;
-      const v = (e & mask) << 1;
-      const tr = valueTable[v];
-      const ti = valueTable[v + 1];
-      const xr = x[c];
-      const xi = x[c + 1];
-      re += tr * xr - ti * xi;
-      im += tr * xi + ti * xr;
-      y[c] += tr * x0r + ti * x0i;
-      y[c + 1] += tr * x0i - ti * x0r;
-    }
-    y[2 * r] += re;
-    y[2 * r + 1] += im;
-  }
+  packedHermitianMatvec(sector.rowStart, sector.packed, sector.valueBits, sector.valueTable, sector.diagonal, x, y);
   const { extraRow, extraColumn, extraValues } = sector;
   for (let j = 0; j < extraRow.length; j++) {
     const r = extraRow[j] << 1;
