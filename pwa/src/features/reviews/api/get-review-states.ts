@@ -1,7 +1,6 @@
 import { queryOptions, useQuery } from '@tanstack/react-query';
-import { useEffect, useRef, useSyncExternalStore } from 'react';
 import { apiCall } from '../../../lib/auth.js';
-import { engineState, subscribeEngine } from '../../../lib/sync-engine.js';
+import { useRefetchAfterSync } from '../../sync/hooks/use-refetch-after-sync.js';
 import type { MapReviewState } from '../lib/review-state.js';
 import { reviewKeys } from './get-reviews.js';
 
@@ -33,13 +32,6 @@ export const reviewStatesQueryOptions = (projectId: string) =>
  */
 export function useReviewStates(projectId: string, enabled = true) {
   const query = useQuery({ ...reviewStatesQueryOptions(projectId), enabled });
-  const { lastSyncAt } = useSyncExternalStore(subscribeEngine, engineState, engineState);
-  const { refetch } = query;
-  const seenSync = useRef(lastSyncAt);
-  useEffect(() => {
-    if (lastSyncAt === seenSync.current) return;
-    seenSync.current = lastSyncAt;
-    if (enabled) void refetch();
-  }, [enabled, lastSyncAt, refetch]);
+  useRefetchAfterSync(query.refetch, enabled);
   return query;
 }

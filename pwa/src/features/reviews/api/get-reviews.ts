@@ -1,7 +1,6 @@
 import { queryOptions, useQuery } from '@tanstack/react-query';
-import { useEffect, useRef, useSyncExternalStore } from 'react';
 import { apiCall } from '../../../lib/auth.js';
-import { engineState, subscribeEngine } from '../../../lib/sync-engine.js';
+import { useRefetchAfterSync } from '../../sync/hooks/use-refetch-after-sync.js';
 
 export interface ServerSpotCheckPoint {
   key: string;
@@ -92,13 +91,6 @@ export const reviewsQueryOptions = (projectId: string, mapId: string) =>
  */
 export function useReviews(projectId: string, mapId: string, enabled = true) {
   const query = useQuery({ ...reviewsQueryOptions(projectId, mapId), enabled });
-  const { lastSyncAt } = useSyncExternalStore(subscribeEngine, engineState, engineState);
-  const { refetch } = query;
-  const seenSync = useRef(lastSyncAt);
-  useEffect(() => {
-    if (lastSyncAt === seenSync.current) return;
-    seenSync.current = lastSyncAt;
-    if (enabled) void refetch();
-  }, [enabled, lastSyncAt, refetch]);
+  useRefetchAfterSync(query.refetch, enabled);
   return query;
 }
