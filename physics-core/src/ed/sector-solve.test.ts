@@ -128,4 +128,18 @@ describe('exact diagonalization in momentum sectors', () => {
       for (let i = 0; i < 3; i++) expect(r.energies[i]).toBeCloseTo(plain.energies[i], 9);
     }
   });
+
+  it('graphene (one particle on a 3×3 honeycomb torus): the 2-state sectors at K, where H_k = 0, are solved too; E0 = −3t at Γ (Wallace, Phys. Rev. 1947)', () => {
+    const graphene: ModelSpec = {
+      spec: 'phasewright.model/1',
+      lattice: { kind: 'honeycomb', size: [3, 3], boundary: ['periodic', 'periodic'] },
+      particles: { kind: 'hardcore', count: 1 },
+      parameters: { t: 1 },
+      terms: [{ kind: 'hop', neighbors: 1, amplitude: '-t' }],
+    };
+    const { sectors, full } = both(compileModel(graphene));
+    expect(sectors.convergence.converged).toBe(true);
+    expect(sectors.energies[0]).toBeCloseTo(-3, 12);
+    for (let i = 0; i < 2; i++) expect(sectors.energies[i]).toBeCloseTo(full.energies[i], 10);
+  });
 });

@@ -55,6 +55,17 @@ describe('thick-restart Lanczos', () => {
     expect(Math.hypot(h[0], h[1])).toBeLessThan(1e-9);
   });
 
+  it('lowestEigenpairs diagonalizes tiny spaces densely: a 2×2 zero block gives both levels (0, 0) with orthonormal vectors (invariant)', () => {
+    const res = lowestEigenpairs((x, y) => y.fill(0 * x[0]), 2, { states: 2 });
+    expect(res.converged).toBe(true);
+    expect(res.values).toEqual([0, 0]);
+    const [u, v] = res.vectors;
+    const dot = (a: Float64Array, b: Float64Array) => [a[0] * b[0] + a[1] * b[1] + a[2] * b[2] + a[3] * b[3], a[0] * b[1] - a[1] * b[0] + a[2] * b[3] - a[3] * b[2]];
+    expect(dot(u, u)[0]).toBeCloseTo(1, 12);
+    expect(dot(v, v)[0]).toBeCloseTo(1, 12);
+    expect(Math.hypot(...dot(u, v))).toBeLessThan(1e-12);
+  });
+
   it('is deterministic for a seed, and a warm start from the answer converges at once', () => {
     const op = new EdOperator(randomModel(9, 12, 6));
     const n = op.dimension;
