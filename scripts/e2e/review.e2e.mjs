@@ -42,6 +42,8 @@ async function openDemoProject(page, baseUrl) {
 export const tests = [
   {
     name: 'review journey: editor requests a review, the reviewer follows the e-mailed link, spot-checks in her browser and approves; refined points make the verdict outdated',
+    // Three browsers, two sweeps, a spot-check and several sync rounds: 26–38 s on this machine at load 2–4.
+    timeoutMs: 120_000,
     async run({ baseUrl, page, screenshot }) {
       await signIn(page, baseUrl, EDITOR);
       const projectId = await openDemoProject(page, baseUrl);

@@ -1,5 +1,5 @@
 // Browser tests: runs every scripts/e2e/*.e2e.mjs against PW_BASE_URL in headless Chromium.
-// Each file exports `tests`: an array of { name, run(t) }. Every test gets a fresh browser
+// Each file exports `tests`: an array of { name, run(t), timeoutMs? } (default 45 s or PW_TEST_TIMEOUT_MS). Every test gets a fresh browser
 // profile (no service worker or cache carried over). Screenshots go to <repo>/.screenshots/.
 // Prints "ok"/"FAIL" per test and ends with "E2E: N passed, M failed"; exits 1 on failure.
 //
@@ -66,7 +66,7 @@ for (const file of files) {
           return path;
         },
       };
-      await withTimeout(Promise.resolve(test.run(t)), TEST_TIMEOUT_MS, label);
+      await withTimeout(Promise.resolve(test.run(t)), test.timeoutMs ?? TEST_TIMEOUT_MS, label);
       if (pageErrors.length > 0) throw new Error(`uncaught errors in the page: ${pageErrors.join(' | ')}`);
       passed += 1;
       console.log(`ok   ${label} (${Date.now() - started} ms)`);

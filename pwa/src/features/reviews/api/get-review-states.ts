@@ -32,6 +32,6 @@ export const reviewStatesQueryOptions = (projectId: string) =>
  */
 export function useReviewStates(projectId: string, enabled = true) {
   const query = useQuery({ ...reviewStatesQueryOptions(projectId), enabled });
-  useRefetchAfterSync(query.refetch, enabled);
+  useRefetchAfterSync(query, enabled);
   return query;
 }

@@ -91,6 +91,6 @@ export const reviewsQueryOptions = (projectId: string, mapId: string) =>
  */
 export function useReviews(projectId: string, mapId: string, enabled = true) {
   const query = useQuery({ ...reviewsQueryOptions(projectId, mapId), enabled });
-  useRefetchAfterSync(query.refetch, enabled);
+  useRefetchAfterSync(query, enabled);
   return query;
 }
