@@ -63,4 +63,5 @@ export { chernNumbers, type ChernOptions, type ChernResult, type BandGroup } fro
 export { hermitianEigen } from './bands/hermitian-eigen.js';
 export { classifyPoint, checkClassifyOptions, type ClassifyOptions, type Classification, type PhaseId } from './classify/phases.js';
 export { pointsCsv, csvField, exportFileStem, type PointsCsvOptions } from './maps/points-csv.js';
-export { samplePointKeys, spotCheckJobs } from './maps/spot-check.js';
+export { compareSpotCheck, samplePointKeys, SPOT_CHECK_TOLERANCE, spotCheckJobs } from './maps/spot-check.js';
+export type { SpotCheckComparison, SpotCheckOutcome, SpotCheckPointResult } from './maps/spot-check.js';

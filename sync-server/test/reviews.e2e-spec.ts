@@ -94,11 +94,13 @@ describe('reviews, spot-checks and exports against the private MariaDB', () => {
     const check = await request(server).post(api(`/maps/${mapId}/spot-checks`)).set('authorization', bearer(reviewer)).send({ sample: keys.length, seed: 3, reviewId }).expect(201);
     expect(check.body.points.map((p: { key: string }) => p.key)).toEqual([...keys].sort());
     const bad = check.body.points.find((p: { key: string }) => p.key === 'V=0');
-    if (bad.failed) throw new Error(`spot-check point failed: ${bad.failed}`);
+    if (bad.outcome === 'not-run') throw new Error(`spot-check point was not re-run: ${bad.problem}`);
     expect(bad.freshEnergy).toBeCloseTo(-4, 9);
     expect(bad.absEnergyDifference).toBeCloseTo(0.1, 9);
+    expect(bad).toMatchObject({ outcome: 'differs', problem: expect.stringMatching(/relative \|ΔE\| = 2\.56e-2 > 1e-8/) }); // 0.1 / 3.9
+    for (const p of check.body.points.filter((x: { key: string }) => x.key !== 'V=0')) expect(p).toMatchObject({ outcome: 'reproduced', relEnergyDifference: expect.any(Number) });
     for (const p of check.body.points.filter((x: { key: string }) => x.key !== 'V=0')) expect(p.relEnergyDifference).toBeLessThanOrEqual(1e-8);
-    expect(check.body).toMatchObject({ pass: false, failed: 0, tolerance: 1e-8, runtime: { node: process.version } });
+    expect(check.body).toMatchObject({ method: 'ed', pass: false, failed: 0, differs: 1, reproduced: keys.length - 1, worstKey: 'V=0', tolerance: 1e-8, runtime: { node: process.version } });
     expect(check.body.timing.workers).toBe(2);
     const tooMany = await request(server).post(api(`/maps/${mapId}/spot-checks`)).set('authorization', bearer(reviewer)).send({ sample: 5 }).expect(400);
     expect(tooMany.body.message).toMatch(/at most 4 points per spot-check/);

@@ -73,14 +73,15 @@ describe('phasewright sweep / spot-check (child process, real ED) and export', (
     const ok = run(['spot-check', mapFile, '--sample', '3', '--seed', '5', '--workers', '1']);
     expect(ok.status).toBe(0);
     expect(ok.stdout).toMatch(/labels agree: \d+\/\d+/);
-    expect(ok.stdout.trim().split('\n').at(-1)).toMatch(/^PASS: energies within 1e-8 relative/);
+    expect(ok.stdout.trim().split('\n').at(-1)).toMatch(/^PASS: 3 reproduced within 1e-8; \d+\/\d+ labels agree$/);
     const map = JSON.parse(readFileSync(mapFile, 'utf8'));
     for (const p of Object.values(map.points) as { energy: number }[]) p.energy += 1e-6;
     const bad = join(dir, 'tampered.json');
     writeFileSync(bad, JSON.stringify(map));
     const fail = run(['spot-check', bad, '--sample', '2', '--workers', '1']);
     expect(fail.status).toBe(1);
-    expect(fail.stderr).toMatch(/^phasewright: FAIL: energies beyond 1e-8 relative/);
+    expect(fail.stderr).toMatch(/^phasewright: FAIL: 0 reproduced within 1e-8, 2 differ;/);
+    expect(fail.stdout).toMatch(/^differs: V=[^:]+: relative \|ΔE\| = \d\.\d\de-\d > 1e-8$/m);
   }, 120_000);
 
   it('bad input: one line, non-zero exit', async () => {

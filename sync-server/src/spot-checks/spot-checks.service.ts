@@ -1,6 +1,6 @@
 import { BadRequestException, HttpException, HttpStatus, Inject, Injectable, NotFoundException, type OnModuleDestroy } from '@nestjs/common';
 import { InjectConnection } from '@nestjs/sequelize';
-import { CORE_VERSION, type MapPoint, samplePointKeys, spotCheckJobs, type SweepSpec } from '@phasewright/physics-core';
+import { compareSpotCheck, CORE_VERSION, type MapPoint, samplePointKeys, spotCheckJobs, type SweepSpec } from '@phasewright/physics-core';
 import { randomUUID } from 'node:crypto';
 import os from 'node:os';
 import { QueryTypes } from 'sequelize';
@@ -9,10 +9,9 @@ import type { ProjectAccess } from '../common/auth-user.js';
 import { serverVersion } from '../config/repo-paths.js';
 import { MapsService } from '../maps/maps.service.js';
 import { SYNC_CONFIG, type SyncConfig } from '../sync/sync-config.js';
-import type { RunSpotCheckDto, SpotCheckPointDto, SpotCheckReportDto } from './dto/spot-check.dto.js';
+import type { RunSpotCheckDto, SpotCheckReportDto } from './dto/spot-check.dto.js';
 import { SpotCheckPool } from './spot-check-runner.js';
 
-/** K keys drawn without replacement by a seeded shuffle of the sorted keys (the CLI's rule). */
 /** Re-runs sampled points of a stored map with physics-core in worker threads and stores the report. */
 @Injectable()
 export class SpotChecksService implements OnModuleDestroy {
@@ -77,46 +76,12 @@ export class SpotChecksService implements OnModuleDestroy {
       if (e.kind === 'point') fresh.set(e.key, e.point);
       else failures.set(e.key, e.message);
     }
-    const tolerance = sweep.method === 'ed' ? 1e-8 : 1e-6;
-    let maxAbs = 0;
-    let maxRel = 0;
-    let agree = 0;
-    let compared = 0;
-    let pointsMs = 0;
-    const points: SpotCheckPointDto[] = keys.map((key) => {
-      const old = stored[key];
-      const p: SpotCheckPointDto = { key, parameters: old.parameters, storedEnergy: old.energy, ...(old.label ? { storedLabel: old.label.id } : {}) };
-      const f = fresh.get(key);
-      if (!f) {
-        p.failed = failures.get(key) ?? 'no result';
-        return p;
-      }
-      const d = Math.abs(f.energy - old.energy);
-      const rel = d / Math.max(Math.abs(old.energy), 1e-300);
-      maxAbs = Math.max(maxAbs, d);
-      maxRel = Math.max(maxRel, rel);
-      pointsMs += f.wallMs;
-      Object.assign(p, { freshEnergy: f.energy, absEnergyDifference: d, relEnergyDifference: rel, converged: f.convergence.converged, wallMs: f.wallMs });
-      if (f.label) p.freshLabel = f.label.id;
-      if (f.label && old.label) {
-        compared++;
-        p.labelsAgree = f.label.id === old.label.id;
-        if (p.labelsAgree) agree++;
-      }
-      return p;
-    });
-    const failed = points.filter((p) => p.failed !== undefined).length;
+    // The rule every spot-check uses (physics-core), so the CLI, the browser and the server agree.
+    const comparison = compareSpotCheck(sweep.method, stored, fresh, failures);
+    const pointsMs = comparison.points.reduce((sum, p) => sum + (p.wallMs ?? 0), 0);
     const report = {
-      sample: keys.length,
+      ...comparison,
       seed,
-      tolerance,
-      points,
-      maxAbsEnergyDifference: maxAbs,
-      maxRelEnergyDifference: maxRel,
-      labelsAgree: agree,
-      labelsCompared: compared,
-      failed,
-      pass: failed === 0 && maxRel <= tolerance && agree === compared,
       timing: { totalMs: Math.round(totalMs), pointsMs: Math.round(pointsMs), workers: Math.min(this.config.spotCheck.workers, keys.length) },
       runtime: { node: process.version, platform: `${process.platform}-${process.arch}`, cpus: os.availableParallelism(), coreVersion: CORE_VERSION, serverVersion },
     };

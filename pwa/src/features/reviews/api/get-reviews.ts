@@ -1,36 +1,19 @@
+import type { SpotCheckComparison, SpotCheckPointResult } from '@phasewright/physics-core';
 import { queryOptions, useQuery } from '@tanstack/react-query';
 import { apiCall } from '../../../lib/auth.js';
 import { useRefetchAfterSync } from '../../sync/hooks/use-refetch-after-sync.js';
 
-export interface ServerSpotCheckPoint {
-  key: string;
-  parameters: Record<string, number>;
-  storedEnergy: number;
-  freshEnergy?: number;
-  absEnergyDifference?: number;
-  relEnergyDifference?: number;
-  storedLabel?: string;
-  freshLabel?: string;
-  labelsAgree?: boolean;
-  converged?: boolean;
-  wallMs?: number;
-  failed?: string;
-}
-
-export interface ServerSpotCheckReport {
+/**
+ * A stored server spot-check (physics-core's comparison plus where and when). Reports stored before
+ * the shared rule may lack `outcome`, `note`, the counts and `method`, and carry a point's reason as
+ * `failed`.
+ */
+export interface ServerSpotCheckReport extends Omit<SpotCheckComparison, 'points'> {
   id: string;
   mapId: string;
   reviewId: string | null;
-  sample: number;
   seed: number;
-  tolerance: number;
-  points: ServerSpotCheckPoint[];
-  maxAbsEnergyDifference: number;
-  maxRelEnergyDifference: number;
-  labelsAgree: number;
-  labelsCompared: number;
-  failed: number;
-  pass: boolean;
+  points: (SpotCheckPointResult & { failed?: string })[];
   timing: { totalMs: number; pointsMs: number; workers: number };
   runtime: Record<string, unknown>;
   requestedBy: string | null;

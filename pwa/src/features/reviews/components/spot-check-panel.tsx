@@ -1,4 +1,4 @@
-import type { MapPoint } from '@phasewright/physics-core';
+import { SPOT_CHECK_TOLERANCE, type MapPoint } from '@phasewright/physics-core';
 import { useState } from 'react';
 import { Badge } from '../../../components/ui/badge.js';
 import { Button } from '../../../components/ui/button.js';
@@ -17,7 +17,10 @@ function ReportTable({ report, where }: { report: BrowserSpotCheckReport | Serve
   return (
     <div className="space-y-2" data-testid={`spot-check-report-${where}`} data-pass={String(report.pass)}>
       <p className="text-sm text-ink-800">
-        <Badge tone={report.pass ? 'good' : 'bad'}>{report.pass ? 'pass' : 'fail'}</Badge> {report.sample} points · max |ΔE| {num(report.maxAbsEnergyDifference)} · max |ΔE|/|E| {num(report.maxRelEnergyDifference)} · labels agree {report.labelsAgree} of {report.labelsCompared} · {report.failed} failed
+        <Badge tone={report.pass ? 'good' : 'bad'}>{report.pass ? 'pass' : 'fail'}</Badge> {report.sample} points
+        {report.reproduced !== undefined ? ` · ${report.reproduced} reproduced` : ''}
+        {report.storedLower ? ` · ${report.storedLower} stored lower` : ''}
+        {report.differs ? ` · ${report.differs} differ` : ''} · {report.failed} not re-run · max |ΔE| {num(report.maxAbsEnergyDifference)} · max relative {num(report.maxRelEnergyDifference)} · labels agree {report.labelsAgree} of {report.labelsCompared}
       </p>
       <div className="overflow-x-auto">
         <table className="min-w-full text-left text-xs">
@@ -28,7 +31,8 @@ function ReportTable({ report, where }: { report: BrowserSpotCheckReport | Serve
               <th className="pr-3">fresh E</th>
               <th className="pr-3">|ΔE|</th>
               <th className="pr-3">labels</th>
-              <th>problem</th>
+              <th className="pr-3">outcome</th>
+              <th>why</th>
             </tr>
           </thead>
           <tbody className="font-mono">
@@ -41,7 +45,10 @@ function ReportTable({ report, where }: { report: BrowserSpotCheckReport | Serve
                 <td className="pr-3">
                   {p.storedLabel ?? '—'} / {p.freshLabel ?? '—'}
                 </td>
-                <td>{'problem' in p ? p.problem : 'failed' in p ? p.failed : ''}</td>
+                <td className="pr-3" data-outcome={p.outcome}>
+                  {p.outcome ?? '—'}
+                </td>
+                <td className="font-sans">{p.problem ?? p.note ?? ('failed' in p ? p.failed : '')}</td>
               </tr>
             ))}
           </tbody>
@@ -77,7 +84,7 @@ export function SpotCheckPanel({ map, rows, projectId, reviewId, canAskServer, s
   return (
     <Card title="Spot-check" data={{ testid: 'spot-check' }}>
       <p className="mb-3 text-sm text-ink-700">
-        Re-runs a random sample of points from scratch (no warm start) and compares energies and phase labels with the stored ones. Pass rule: exact diagonalization within 1e-8 relative energy; mean-field a lower or equal energy (a variational method may find a better minimum, never a worse one); every label the same.{' '}
+        Re-runs a random sample of points from scratch (no warm start) and compares energies and phase labels with the stored ones. Pass rule (the same in the command line, this browser and the server): exact diagonalization — every energy within {SPOT_CHECK_TOLERANCE.ed} of |ΔE|/max(|E|, 1) and every label the same; mean-field — within {SPOT_CHECK_TOLERANCE.meanfield} and the same label, and a re-run that finds a <i>lower</i> minimum fails (the map missed it there). A mean-field re-run that stops in a higher minimum passes with a note: the stored point had the sweep&apos;s warm start as one more candidate and is the lower variational energy.{' '}
         <b>A spot-check shows that the numbers are reproducible, not that they are correct</b>: the same finite cluster and the same approximations give the same answer.
       </p>
       <div className="mb-3 flex flex-wrap items-end gap-3 text-sm">
