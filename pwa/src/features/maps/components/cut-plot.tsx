@@ -8,6 +8,7 @@ import { forwardRef } from 'react';
 import { axisInfo, scalar, type MapCell } from '../lib/map-data.js';
 import { measuredOnCut, type MeasurementRow } from '../lib/measurements.js';
 import { PLOT } from '../lib/plot-colors.js';
+import { plotDomain, TICK_SPECIFIER } from '../lib/plot-domain.js';
 
 interface Props {
   sweep: SweepSpec;
@@ -39,11 +40,8 @@ export const CutPlot = forwardRef<SVGSVGElement, Props>(function CutPlot({ sweep
     .sort((p, q) => p.xv - q.xv);
   const meas = measuredOnCut(measured, a.parameter, observable, axis2 && row !== undefined ? { parameter: axis2, value: row } : undefined);
   const ys = [...pts.map((p) => p.yv), ...meas.flatMap((m) => [m.y - (m.err ?? 0), m.y + (m.err ?? 0)])];
-  const lo = ys.length ? Math.min(...ys) : 0;
-  const hi = ys.length ? Math.max(...ys) : 1;
-  const pad = (hi - lo || Math.abs(hi) || 1) * 0.08;
   const x = a.log ? scaleLog<number>({ domain: [a.min, a.max], range: [0, iw] }) : scaleLinear<number>({ domain: [a.min, a.max === a.min ? a.min + 1 : a.max], range: [0, iw] });
-  const y = scaleLinear<number>({ domain: [lo - pad, hi + pad], range: [ih, 0], nice: true });
+  const y = scaleLinear<number>({ domain: plotDomain(ys), range: [ih, 0], nice: true });
   const title = `${observable} along ${a.parameter}${row !== undefined ? ` (${axis2} = ${row})` : ''}${meas.length ? ` · ${meas.length} measured` : ''}`;
   return (
     <svg ref={ref} viewBox={`0 0 ${width} ${height}`} width="100%" role="img" aria-label={title} data-testid="cut-plot" data-ink-aware="" className="block">
@@ -54,7 +52,7 @@ export const CutPlot = forwardRef<SVGSVGElement, Props>(function CutPlot({ sweep
       <Group left={M.left} top={M.top}>
         {/* Axes first: the points at the ends of the range stay clickable above them. */}
         <AxisBottom top={ih} scale={x} numTicks={6} stroke={INK} tickStroke={INK} label={a.parameter} labelProps={{ fontSize: 12, fill: INK, textAnchor: 'middle', fontFamily: 'Manrope, sans-serif' }} tickLabelProps={{ fontSize: 10, fill: INK, fontFamily: 'Manrope, sans-serif' }} />
-        <AxisLeft scale={y} numTicks={5} stroke={INK} tickStroke={INK} label={observable} labelOffset={56} labelProps={{ fontSize: 12, fill: INK, textAnchor: 'middle', fontFamily: 'Manrope, sans-serif' }} tickLabelProps={{ fontSize: 10, fill: INK, fontFamily: 'Manrope, sans-serif' }} />
+        <AxisLeft scale={y} numTicks={5} tickFormat={y.tickFormat(5, TICK_SPECIFIER)} stroke={INK} tickStroke={INK} label={observable} labelOffset={56} labelProps={{ fontSize: 12, fill: INK, textAnchor: 'middle', fontFamily: 'Manrope, sans-serif' }} tickLabelProps={{ fontSize: 10, fill: INK, fontFamily: 'Manrope, sans-serif' }} />
         <LinePath data={pts} x={(p) => x(p.xv) ?? 0} y={(p) => y(p.yv) ?? 0} stroke={INK} strokeWidth={1.5} />
         <g data-testid="cut-measured" data-count={meas.length}>
           {meas.map((m) => {

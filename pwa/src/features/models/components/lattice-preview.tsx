@@ -7,6 +7,10 @@
  */
 import type { CompiledModel } from '@phasewright/physics-core';
 import { useMemo, type ReactElement } from 'react';
+import { PLOT } from '../../maps/lib/plot-colors.js';
+
+/** Fill of the sites of even sublattices (odd ones are drawn in the surface colour); follows the theme. */
+const SUBLATTICE_B = 'var(--color-ink-100)';
 
 /** Term colours: Okabe–Ito hues (see lib/phase-colors.ts), in an order distinct from phases. */
 export const TERM_COLORS = ['#0072b2', '#d55e00', '#009e73', '#cc79a7', '#e69f00', '#56b4e9'] as const;
@@ -184,14 +188,15 @@ export function LatticePreview({ model, width = 560, height = 240, siteValues, t
                 cx={p.x}
                 cy={p.y}
                 r={radius}
-                fill={v === undefined ? (s.sublattice % 2 ? '#fffcf6' : '#e6e3dc') : `rgb(29 38 64 / ${Math.max(0, Math.min(1, v)).toFixed(3)})`}
-                stroke="#1d2640"
+                fill={v === undefined ? (s.sublattice % 2 ? PLOT.surface : SUBLATTICE_B) : PLOT.ink}
+                fillOpacity={v === undefined ? 1 : Math.max(0, Math.min(1, v))}
+                stroke={PLOT.ink}
                 strokeWidth={1.4}
               >
                 <title>{`site ${s.index} (${s.x.toFixed(2)}, ${s.y.toFixed(2)})${v === undefined ? '' : `, n = ${v.toFixed(3)}`}`}</title>
               </circle>
               {radius >= 8 && v === undefined ? (
-                <text x={p.x} y={p.y + 3} textAnchor="middle" fontSize={8} fill="#1d2640" fontFamily="Manrope, sans-serif">
+                <text x={p.x} y={p.y + 3} textAnchor="middle" fontSize={8} fill={PLOT.ink} fontFamily="Manrope, sans-serif">
                   {s.index}
                 </text>
               ) : null}
