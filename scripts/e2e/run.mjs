@@ -1,5 +1,5 @@
 // Browser tests: runs every scripts/e2e/*.e2e.mjs against PW_BASE_URL in headless Chromium.
-// Each file exports `tests`: an array of { name, run(t), timeoutMs? } (default 45 s or PW_TEST_TIMEOUT_MS). Every test gets a fresh browser
+// Each file exports `tests`: an array of { name, run(t), timeoutMs? } (default 90 s or PW_TEST_TIMEOUT_MS: each step has its own wait, so this only stops a hang). Every test gets a fresh browser
 // profile (no service worker or cache carried over). Screenshots go to <repo>/.screenshots/.
 // Prints "ok"/"FAIL" per test and ends with "E2E: N passed, M failed"; exits 1 on failure.
 //
@@ -12,7 +12,7 @@ import { launchFreshContext } from './browser.mjs';
 const here = fileURLToPath(new URL('.', import.meta.url));
 const repoRoot = join(here, '..', '..');
 const screenshotDir = join(repoRoot, '.screenshots');
-const TEST_TIMEOUT_MS = Number(process.env.PW_TEST_TIMEOUT_MS ?? 45_000);
+const TEST_TIMEOUT_MS = Number(process.env.PW_TEST_TIMEOUT_MS ?? 90_000);
 
 const baseUrl = process.env.PW_BASE_URL?.replace(/\/+$/, '');
 if (!baseUrl) {
