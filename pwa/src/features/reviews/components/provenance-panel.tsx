@@ -70,7 +70,7 @@ export function ProvenancePanel({ map, points }: { map: MapRecord; points: MapPo
           <ul className="list-inside list-disc">
             {p.sources.map((s, i) => (
               <li key={i}>
-                {s.author ?? 'unknown author'} · {s.createdAt}
+                {s.author ?? 'no author recorded (computed signed out)'} · {s.createdAt}
                 {s.finishedAt ? ` → ${s.finishedAt}` : ' (unfinished)'} · {s.runtime.kind} {s.runtime.version.slice(0, 60)} · {s.runtime.cores} cores
               </li>
             ))}

@@ -1,10 +1,20 @@
 /** Sweeps and their maps in the local database. */
 import { CORE_VERSION, mapIdentity, type PhaseMap, type SweepSpec } from '@phasewright/physics-core';
 import { useLiveQuery } from 'dexie-react-hooks';
+import { currentSession } from '../../../lib/auth.js';
 import { LOCAL_PROJECT_ID, db, newId, queueChange, type MapRecord, type RunRecord, type SweepRecord } from '../../../lib/db.js';
 
 export function runtimeInfo(): PhaseMap['provenance']['runtime'] {
   return { kind: 'browser', version: navigator.userAgent, cores: navigator.hardwareConcurrency || 1 };
+}
+
+/**
+ * Who is computing, as the map's provenance records it: the signed-in user as "Name <e-mail>"
+ * (what project members see of each other anyway), or nothing when signed out (local-only work).
+ */
+export async function provenanceAuthor(): Promise<string | undefined> {
+  const session = await currentSession();
+  return session ? `${session.user.displayName} <${session.user.email}>` : undefined;
 }
 
 /** Creates a sweep and its (empty) map in the model's project; returns the sweep id. */
@@ -17,6 +27,8 @@ export async function createSweep(spec: SweepSpec, modelId: string): Promise<str
   const mapId = newId();
   const name = spec.name ?? `${spec.model.name ?? 'model'} · ${spec.axes.map((a) => a.parameter).join(' × ')}`;
   const createdAt = new Date(now).toISOString();
+  const author = await provenanceAuthor();
+  const by = author !== undefined ? { author } : {};
   const sweep: SweepRecord = { id: sweepId, projectId, ownerId, name, createdAt: now, updatedAt: now, modelId, spec, mapId };
   const map: MapRecord = {
     id: mapId,
@@ -28,7 +40,7 @@ export async function createSweep(spec: SweepSpec, modelId: string): Promise<str
     sweepId,
     identity: mapIdentity(spec, CORE_VERSION),
     sweep: spec,
-    provenance: { createdAt, runtime: runtimeInfo(), seeds: [spec.seed ?? 0], coreVersion: CORE_VERSION, warnings: [], sources: [{ createdAt, runtime: runtimeInfo() }] },
+    provenance: { ...by, createdAt, runtime: runtimeInfo(), seeds: [spec.seed ?? 0], coreVersion: CORE_VERSION, warnings: [], sources: [{ ...by, createdAt, runtime: runtimeInfo() }] },
     method: spec.method,
     lattice: spec.model.lattice.kind,
     pointCount: 0,

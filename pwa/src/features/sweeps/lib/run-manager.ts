@@ -9,7 +9,7 @@
  */
 import { runSweep, type Progress } from '@phasewright/physics-core';
 import { LOCAL_PROJECT_ID, db, pointRow, queueChange, type PointRow, type RunState } from '../../../lib/db.js';
-import { loadPhaseMap, runtimeInfo } from '../api/sweeps.js';
+import { loadPhaseMap, provenanceAuthor, runtimeInfo } from '../api/sweeps.js';
 import { createBrowserWorker } from '../workers/browser-worker.js';
 import { RateMeter, progressFigures, type ProgressFigures } from '../workers/eta.js';
 import { WorkerPool } from '../workers/worker-pool.js';
@@ -105,10 +105,12 @@ export async function startRun(sweepId: string): Promise<void> {
   };
 
   const resumeMap = resume && Object.keys(resume.points).length > 0 ? resume : undefined;
+  const author = await provenanceAuthor();
   try {
     const outcome = await runSweep(sweep.spec, {
       executor,
       runtime: runtimeInfo(),
+      ...(author !== undefined ? { author } : {}),
       signal: controller.signal,
       segmentLength: SEGMENT_LENGTH,
       ...(resumeMap ? { resume: resumeMap } : {}),
