@@ -171,6 +171,7 @@ export function LatticePreview({ model, width = 560, height = 240, siteValues, t
       viewBox={`0 0 ${width} ${height}`}
       width="100%"
       role="img"
+      data-ink-aware=""
       aria-label={title ?? `Cluster of ${model.nSites} sites`}
       className="block rounded-lg bg-surface ring-1 ring-line"
       data-testid="lattice-preview"
