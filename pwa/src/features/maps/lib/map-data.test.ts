@@ -59,5 +59,9 @@ describe('map data', () => {
     expect(c).toMatch(/1 point has a degenerate ground state/);
     expect(c).toMatch(/indicate, but do not prove/);
     expect(caveatsOf({ ...sweep, method: 'meanfield' }, []).join(' ')).toMatch(/Mean-field/);
+    // A one-cell supercell cannot hold a density wave of period two: said on every such map.
+    expect(caveatsOf({ ...sweep, method: 'meanfield' }, []).join(' ')).toMatch(/supercell of 1 unit cell: .* cannot appear/);
+    expect(caveatsOf({ ...sweep, method: 'meanfield', solver: { supercell: [4] } }, []).join(' ')).toMatch(/supercell of 4 unit cells: order whose period does not fit it cannot appear/);
+    expect(caveatsOf({ ...sweep, method: 'meanfield', solver: { supercell: 'sqrt3' } }, []).join(' ')).toMatch(/supercell of 3 unit cells/);
   });
 });

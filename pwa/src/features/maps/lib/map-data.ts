@@ -3,7 +3,7 @@
  * refinement level sets the cell size), the labels, the scalar observables, and the boundaries
  * traced by physics-core.
  */
-import { traceBoundaries, type Boundary, type MapPoint, type SweepSpec } from '@phasewright/physics-core';
+import { resolveSupercell, traceBoundaries, type Boundary, type MapPoint, type SupercellSpec, type SweepSpec } from '@phasewright/physics-core';
 
 export interface AxisInfo {
   parameter: string;
@@ -87,6 +87,19 @@ export function boundariesOf(sweep: SweepSpec, points: { key: string; point: Map
 }
 
 /** The caveats a reader of this map must see. */
+/** Unit cells in a mean-field sweep's supercell (solver.supercell; one cell when absent); undefined if it does not resolve. */
+export function supercellCells(sweep: SweepSpec): number | undefined {
+  const spec = sweep.solver?.supercell as SupercellSpec | undefined;
+  if (spec === 'sqrt3') return 3;
+  const dim = sweep.model.lattice.size.length;
+  try {
+    // Cell counts and integer vectors do not depend on the lattice's translations; unit vectors stand in.
+    return resolveSupercell(spec, Array.from({ length: dim }, (_, a) => Array.from({ length: dim }, (_, j) => (a === j ? 1 : 0)))).cells;
+  } catch {
+    return undefined;
+  }
+}
+
 export function caveatsOf(sweep: SweepSpec, points: { point: MapPoint }[]): string[] {
   const out: string[] = [];
   const l = sweep.model.lattice;
@@ -95,6 +108,12 @@ export function caveatsOf(sweep: SweepSpec, points: { point: MapPoint }[]): stri
     out.push(`Exact diagonalization on a finite cluster: ${l.kind}, ${cells} unit cells, ${l.boundary.join('/')} boundaries${l.twist?.some((t) => t !== 0) ? ', twisted' : ''}. Boundaries shift with cluster size and shape; compare two sizes before trusting a line.`);
   } else {
     out.push('Mean-field (Gutzwiller product states): no correlations between sites; tends to favour ordered and superfluid states. Its energy is a variational upper bound.');
+    const cells = supercellCells(sweep);
+    out.push(
+      cells === undefined
+        ? 'The mean-field supercell could not be read from the solver options.'
+        : `Mean-field supercell of ${cells} unit cell${cells === 1 ? '' : 's'}: order whose period does not fit it ${cells === 1 ? '(any density wave or flux pattern that repeats over more than one cell) ' : ''}cannot appear. Repeat with a larger supercell to test for it.`,
+    );
   }
   const flagged = points.filter((p) => !p.point.convergence.converged).length;
   const degenerate = points.filter((p) => p.point.observables.degenerate === 1).length;

@@ -117,7 +117,7 @@ export function SweepSetup({ model, onCreate }: Props) {
         ) : (
           <>
             <TextField label="Starts per point" path="$.solver.starts" value={starts} onChange={setStarts} inputMode="numeric" errors={at('$.solver.starts')} />
-            <TextField label="Supercell (JSON, optional)" path="$.solver.supercell" value={supercell} onChange={setSupercell} placeholder="e.g. [2] or [2, 2]" errors={at('$.solver.supercell')} />
+            <TextField label="Supercell (JSON, optional)" path="$.solver.supercell" value={supercell} onChange={setSupercell} placeholder="e.g. [2] or [2, 2]" hint="Empty: one unit cell, which cannot hold a density wave or flux pattern longer than a cell" errors={at('$.solver.supercell')} />
           </>
         )}
         <TextField label="Refinement depth" path="$.refine.maxDepth" value={depth} onChange={setDepth} inputMode="numeric" hint="0 = the coarse grid only" errors={at('$.refine.maxDepth')} />
