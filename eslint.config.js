@@ -38,7 +38,11 @@ export default defineConfig([
     languageOptions: { globals: { ...globals.node } },
   },
 
-  // Browser code and its tests.
+  // Browser code and its tests; plain scripts the page loads as they are.
+  {
+    files: ['pwa/public/**/*.js'],
+    languageOptions: { globals: { ...globals.browser }, sourceType: 'script' },
+  },
   {
     files: ['pwa/src/**/*.{ts,tsx}'],
     languageOptions: { globals: { ...globals.browser } },

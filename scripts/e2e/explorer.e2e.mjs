@@ -249,6 +249,8 @@ export const tests = [
       await page.reload();
       await page.getByTestId('cut-plot').waitFor();
       assert.equal(await page.evaluate(() => document.documentElement.classList.contains('dark')), true, 'the dark choice survives a reload');
+      // The class came before the app: public/theme-init.js was loaded by the page (the server's CSP allows it).
+      assert.equal(await page.evaluate(() => performance.getEntriesByName(`${location.origin}/theme-init.js`).length), 1, 'theme-init.js ran before the app');
       await page.goto(`${baseUrl}/models/new`);
       await page.getByText('The model is valid.').waitFor();
       await screenshot('explorer-11-model-editor-dark');

@@ -1,6 +1,7 @@
 import { fireEvent, render, screen } from '@testing-library/react';
 import { afterEach, describe, expect, it, vi } from 'vitest';
-import { THEME_STORAGE_KEY, ThemeToggle } from './theme-toggle.js';
+import initScript from '../../../public/theme-init.js?raw';
+import { storedTheme, systemTheme, THEME_STORAGE_KEY, ThemeToggle } from './theme-toggle.js';
 
 function systemPrefersDark(dark: boolean) {
   vi.stubGlobal('matchMedia', (query: string) => ({ matches: dark && query === '(prefers-color-scheme: dark)', addEventListener: () => {}, removeEventListener: () => {} }));
@@ -32,5 +33,23 @@ describe('ThemeToggle', () => {
     fireEvent.click(screen.getByRole('button', { name: 'Switch to the light theme' }));
     expect(document.documentElement.classList.contains('dark')).toBe(false);
     expect(window.localStorage.getItem(THEME_STORAGE_KEY)).toBe('light');
+  });
+});
+
+describe('public/theme-init.js (runs before the app, against a light flash)', () => {
+  const runInit = () => new Function(initScript)();
+  it.each([
+    [null, false],
+    [null, true],
+    ['dark', false],
+    ['light', true],
+  ] as const)('stored %s, system dark %s: the same theme as the app chooses', (stored, dark) => {
+    systemPrefersDark(dark);
+    if (stored) window.localStorage.setItem(THEME_STORAGE_KEY, stored);
+    runInit();
+    expect(document.documentElement.classList.contains('dark')).toBe((storedTheme() ?? systemTheme()) === 'dark');
+  });
+  it('uses the storage key of the app', () => {
+    expect(initScript).toContain(`'${THEME_STORAGE_KEY}'`);
   });
 });
