@@ -2,10 +2,8 @@ import { randomUUID } from 'node:crypto';
 import { InProcessExecutor, type ModelSpec, type PhaseMap, parseMap, runSweep, solvePoint, type SweepSpec } from '@phasewright/physics-core';
 import request from 'supertest';
 import type { App } from 'supertest/types.js';
-import { createApp } from '../src/app.js';
-import { loadConfig } from '../src/config/app-config.js';
 import { loadSyncConfig } from '../src/sync/sync-config.js';
-import { bearer, CapturingLogger, register, type Session, type StoredMail, testAccountsConfig } from './support/accounts.js';
+import { bearer, register, type Session, type StoredMail, startTestApp, type TestApp } from './support/accounts.js';
 import { createTestDatabase, type TestDatabase } from './support/test-database.js';
 
 /** Hardcore bosons on a periodic 6-site chain at half filling (an invented test model). */
@@ -26,7 +24,7 @@ const run = async (chunk: number) =>
 
 describe('reviews, spot-checks and exports against the private MariaDB', () => {
   let db: TestDatabase;
-  let app: Awaited<ReturnType<typeof createApp>>;
+  let app: TestApp['app'];
   let server: App;
   let editor: Session;
   let reviewer: Session;
@@ -38,12 +36,8 @@ describe('reviews, spot-checks and exports against the private MariaDB', () => {
 
   beforeAll(async () => {
     db = await createTestDatabase();
-    const accounts = testAccountsConfig();
     const sync = { ...loadSyncConfig({}), spotCheck: { maxSample: 4, perUser: 1, maxRunning: 4, workers: 2, timeoutS: 60 } };
-    app = await createApp({ ...loadConfig(), db: db.config, accounts, publicUrl: accounts.publicUrl, sync }, { logger: false });
-    app.useLogger(new CapturingLogger());
-    await app.init();
-    server = app.getHttpServer() as App;
+    ({ app, http: server } = await startTestApp(db.config, {}, sync));
     editor = await register(server, 'eli.sand@example.org', 'Eli Sand', 'harbor-thistle-5512');
     reviewer = await register(server, 'rua.venn@example.org', 'Rua Venn', 'juniper-socket-8841');
     viewer = await register(server, 'tam.oak@example.org', 'Tam Oak', 'saffron-ledge-2290');

@@ -18,10 +18,8 @@ import {
 import { QueryTypes } from 'sequelize';
 import request from 'supertest';
 import type { App } from 'supertest/types.js';
-import { createApp } from '../src/app.js';
-import { loadConfig } from '../src/config/app-config.js';
 import { loadSyncConfig, type SyncConfig } from '../src/sync/sync-config.js';
-import { bearer, CapturingLogger, register, type Session, testAccountsConfig } from './support/accounts.js';
+import { bearer, register, type Session, startTestApp, type TestApp } from './support/accounts.js';
 import { createTestDatabase, type TestDatabase } from './support/test-database.js';
 
 /** Hardcore bosons on a periodic 6-site chain at half filling: −J hops, V n_i n_{i+1} (an invented test model). */
@@ -83,7 +81,7 @@ const LIMITS: SyncConfig = { ...loadSyncConfig({}), maxPointsPerBatch: 3000, max
 
 describe('map sync against the private MariaDB', () => {
   let db: TestDatabase;
-  let app: Awaited<ReturnType<typeof createApp>>;
+  let app: TestApp['app'];
   let server: App;
   let owner: Session;
   let editor: Session;
@@ -92,11 +90,7 @@ describe('map sync against the private MariaDB', () => {
 
   beforeAll(async () => {
     db = await createTestDatabase();
-    const accounts = testAccountsConfig();
-    app = await createApp({ ...loadConfig(), db: db.config, accounts, publicUrl: accounts.publicUrl, sync: LIMITS }, { logger: false });
-    app.useLogger(new CapturingLogger());
-    await app.init();
-    server = app.getHttpServer() as App;
+    ({ app, http: server } = await startTestApp(db.config, {}, LIMITS));
     owner = await register(server, 'ada.crest@example.org', 'Ada Crest', 'lantern-quiet-4471');
     editor = await register(server, 'bo.rill@example.org', 'Bo Rill', 'pebble-orbit-9925');
     viewer = await register(server, 'cy.marsh@example.org', 'Cy Marsh', 'fennel-stair-3380');
@@ -336,5 +330,23 @@ describe('map sync against the private MariaDB', () => {
     await request(server).get(`/api/projects/${projectId}/sync/pull`).set('authorization', bearer(viewer)).expect(200);
     const bad = await request(server).get(`/api/projects/${projectId}/sync/pull`).query({ after: -1 }).set('authorization', bearer(viewer)).expect(400);
     expect(bad.body.details[0].path).toBe('after');
+  });
+  it('a map pushed empty (created before it ran) and then with its points keeps only the run that computed them', async () => {
+    const cut: SweepSpec = { ...edSweep, name: 'chain, V cut (created, then run)', seed: 11 };
+    const run = await runSweep(cut, { executor: new InProcessExecutor(solvePoint), runtime: runtimeOf('runner'), author: 'runner' });
+    const placeholder = createMap(cut, runtimeOf('runner'), 'runner');
+    const id = randomUUID();
+    await push(editor, { batchId: randomUUID(), changes: [mapChange(id, placeholder)] }).expect(200);
+    await push(editor, { batchId: randomUUID(), changes: [mapChange(id, run.map)] }).expect(200);
+    const [row] = await rows<{ provenance: string; pointCount: number }>('SELECT provenance, point_count AS pointCount FROM maps WHERE id = ?', [id]);
+    expect(Number(row!.pointCount)).toBe(9);
+    const provenance = JSON.parse(row!.provenance) as PhaseMap['provenance'];
+    expect(provenance.sources).toEqual(run.map.provenance.sources);
+    expect(provenance.sources[0]!.finishedAt).toBeDefined();
+    // A later push of points to a map that has some still merges the header whole: two runs, both kept.
+    const again = await runSweep(cut, { executor: new InProcessExecutor(solvePoint), runtime: runtimeOf('second'), author: 'second' });
+    await push(editor, { batchId: randomUUID(), changes: [mapChange(id, again.map)] }).expect(200);
+    const [after] = await rows<{ provenance: string }>('SELECT provenance FROM maps WHERE id = ?', [id]);
+    expect((JSON.parse(after!.provenance) as PhaseMap['provenance']).sources.map((x) => x.author)).toEqual(['runner', 'second']);
   });
 });

@@ -1,15 +1,13 @@
 import { QueryTypes } from 'sequelize';
 import request from 'supertest';
 import type { App } from 'supertest/types.js';
-import { createApp } from '../src/app.js';
-import { loadConfig } from '../src/config/app-config.js';
 import { loadSyncConfig } from '../src/sync/sync-config.js';
-import { bearer, CapturingLogger, register, type Session, testAccountsConfig } from './support/accounts.js';
+import { bearer, register, type Session, startTestApp, type TestApp } from './support/accounts.js';
 import { createTestDatabase, type TestDatabase } from './support/test-database.js';
 
 describe('uploads against the private MariaDB', () => {
   let db: TestDatabase;
-  let app: Awaited<ReturnType<typeof createApp>>;
+  let app: TestApp['app'];
   let server: App;
   let owner: Session;
   let editor: Session;
@@ -18,12 +16,8 @@ describe('uploads against the private MariaDB', () => {
 
   beforeAll(async () => {
     db = await createTestDatabase();
-    const accounts = testAccountsConfig();
     const sync = { ...loadSyncConfig({}), uploads: { maxBytes: 4096 } };
-    app = await createApp({ ...loadConfig(), db: db.config, accounts, publicUrl: accounts.publicUrl, sync }, { logger: false });
-    app.useLogger(new CapturingLogger());
-    await app.init();
-    server = app.getHttpServer() as App;
+    ({ app, http: server } = await startTestApp(db.config, {}, sync));
     owner = await register(server, 'ida.wren@example.org', 'Ida Wren', 'meadow-cipher-7713');
     editor = await register(server, 'jo.pike@example.org', 'Jo Pike', 'anvil-sprout-6642');
     other = await register(server, 'kai.lund@example.org', 'Kai Lund', 'violet-hinge-5531');

@@ -110,19 +110,6 @@ describe('merge rules', () => {
     expect(m.provenance.finishedAt).toBe('2031-01-01T00:04:00.000Z');
   });
 
-  it('an empty map (a sweep created, not yet run) adds no source run; empty maps alone keep theirs', () => {
-    const full = singleton('meanfield', r(-1, 5));
-    const empty = { ...singleton('meanfield', { ...r(-1, 1), author: 'ana' }), points: {} };
-    empty.provenance = { ...empty.provenance, sources: empty.provenance.sources.map(({ finishedAt: _, ...s }) => s) };
-    delete empty.provenance.finishedAt;
-    for (const m of [mergeMaps([empty, full]), mergeMaps([full, empty]), mergeMaps([mergeMaps([empty]), full])]) {
-      expect(m.provenance.sources).toEqual(full.provenance.sources);
-      expect(m.provenance.createdAt).toBe(full.provenance.createdAt);
-      expect(m.provenance.author).toBeUndefined();
-    }
-    expect(mergeMaps([empty, empty]).provenance.sources).toEqual(empty.provenance.sources);
-  });
-
   it('refuses maps of different identities', () => {
     const a = singleton('ed', r(-1, 1));
     const b = singleton('meanfield', r(-1, 1));

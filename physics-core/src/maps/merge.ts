@@ -205,8 +205,7 @@ function sourceOrder(a: MapSource, b: MapSource): number {
 
 /**
  * Merges maps of the same identity (throws MergeError on different identities: compare them
- * with `compareMaps` instead). The result's provenance lists every source run of the maps that hold
- * points (an empty map contributes no run); its author,
+ * with `compareMaps` instead). The result's provenance lists every source run; its author,
  * runtime and createdAt are the earliest source's, finishedAt the latest any source recorded
  * (sources interrupted and resumed keep no finishedAt).
  */
@@ -238,10 +237,7 @@ export function mergeMaps(maps: PhaseMap[], options: MergeOptions = {}): PhaseMa
     points[key] = list.length === 1 && !only.disputed && !only.history ? only : mergePoints(list, method, options);
   }
 
-  // Sources are the runs that contributed points: an empty map (a sweep created but not yet run,
-  // pushed so that collaborators see it) adds none, unless every map is empty.
-  const withPoints = maps.filter((m) => Object.keys(m.points).length > 0);
-  const sources = sortedUnique((withPoints.length > 0 ? withPoints : maps).flatMap((m) => m.provenance.sources), canonicalJson).sort(sourceOrder);
+  const sources = sortedUnique(maps.flatMap((m) => m.provenance.sources), canonicalJson).sort(sourceOrder);
   const first = sources[0];
   const finished = sources.flatMap((s) => (s.finishedAt === undefined ? [] : [s.finishedAt])).sort().at(-1);
   // The sweep text may differ in name/refinement settings (not part of the identity): keep the canonical least.

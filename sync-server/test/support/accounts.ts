@@ -5,6 +5,7 @@ import type { App } from 'supertest/types.js';
 import { createApp } from '../../src/app.js';
 import type { AccountsConfig } from '../../src/common/accounts-config.js';
 import { type DatabaseConfig, loadConfig } from '../../src/config/app-config.js';
+import type { SyncConfig } from '../../src/sync/sync-config.js';
 
 /** Clearly test-only secret (never used outside these tests). */
 export const TEST_ONLY_JWT_SECRET = 'test-only-secret-not-for-any-real-server-0123456789';
@@ -54,10 +55,11 @@ export interface TestApp {
   close(): Promise<void>;
 }
 
-export async function startTestApp(db: DatabaseConfig, overrides: Partial<AccountsConfig> = {}): Promise<TestApp> {
+/** The app on a test database, its log captured; `sync` replaces the sync limits (defaults from the environment). */
+export async function startTestApp(db: DatabaseConfig, overrides: Partial<AccountsConfig> = {}, sync?: SyncConfig): Promise<TestApp> {
   const accounts = testAccountsConfig(overrides);
   const logger = new CapturingLogger();
-  const app = await createApp({ ...loadConfig(), db, accounts, publicUrl: accounts.publicUrl }, { logger: false });
+  const app = await createApp({ ...loadConfig(), db, accounts, publicUrl: accounts.publicUrl, ...(sync ? { sync } : {}) }, { logger: false });
   app.useLogger(logger);
   await app.init();
   return { app, http: app.getHttpServer() as App, logger, accounts, close: () => app.close() };
