@@ -139,7 +139,7 @@ export const tests = [
         await rpage.waitForURL(new RegExp(`/reviews/${reviewId}$`));
         await rpage.getByTestId('provenance').waitFor({ timeout: 30_000 });
         // The run is recorded with its author (the editor was signed in when he ran it).
-        await rpage.getByTestId('provenance').getByText(`${EDITOR.displayName} <${EDITOR.email}>`).first().waitFor();
+        await rpage.getByTestId('provenance').getByText(new RegExp(`^${EDITOR.displayName} · `)).first().waitFor();
         await rpage.locator('[data-testid="review"][data-status="requested"]').first().waitFor();
         await rpage.getByTestId('spot-check-sample').fill('3');
         const t0 = Date.now();

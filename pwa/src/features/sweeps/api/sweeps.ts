@@ -9,12 +9,13 @@ export function runtimeInfo(): PhaseMap['provenance']['runtime'] {
 }
 
 /**
- * Who is computing, as the map's provenance records it: the signed-in user as "Name <e-mail>"
- * (what project members see of each other anyway), or nothing when signed out (local-only work).
+ * Who is computing, as the map's provenance records it: the signed-in user's display name (not the
+ * e-mail address: maps leave the group in exports and methods summaries), or nothing when signed
+ * out (local-only work).
  */
 export async function provenanceAuthor(): Promise<string | undefined> {
   const session = await currentSession();
-  return session ? `${session.user.displayName} <${session.user.email}>` : undefined;
+  return session?.user.displayName;
 }
 
 /** Creates a sweep and its (empty) map in the model's project; returns the sweep id. */
