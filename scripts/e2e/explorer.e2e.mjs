@@ -1,4 +1,4 @@
-// The explorer end to end: build a zigzag model in the editor, run a small 2D mean-field sweep
+// The explorer end to end: sign in as the demo editor, build a zigzag model in the editor, run a small 2D mean-field sweep
 // and a 1D ED cut, watch the map fill in, open a point's detail, rename a phase label, reload and
 // find everything still there, export a figure as SVG. Prints the longest main-thread task seen
 // during the sweeps (PerformanceObserver 'longtask') and the gzipped size of the JavaScript the
@@ -8,6 +8,9 @@ import { writeFile } from 'node:fs/promises';
 import { join } from 'node:path';
 import { fileURLToPath } from 'node:url';
 import { gzipSync } from 'node:zlib';
+
+/** The demo editor of the seeded accounts (README). */
+const DEMO_EDITOR = { email: 'otto.vane@example.org', password: 'editor-pebble-4821', displayName: 'Otto Vane' };
 
 const screenshotDir = join(fileURLToPath(new URL('.', import.meta.url)), '..', '..', '.screenshots');
 
@@ -75,7 +78,14 @@ export const tests = [
       console.log(`     initial JS of the start page: ${scripts.size} files, ${(raw / 1024).toFixed(1)} kB, ${(gz / 1024).toFixed(1)} kB gzipped (target < 300 kB)`);
       assert.ok(gz < 300 * 1024, `initial JS ${(gz / 1024).toFixed(1)} kB gzipped is over 300 kB`);
 
-      // 1. Build a zigzag model in the editor.
+      // 0. Sign in as the demo editor (seeded by db/seeders/0001-demo-accounts.mjs); the app remembers him.
+      await page.getByRole('link', { name: 'Sign in' }).first().click();
+      await page.locator('[data-path="email"]').fill(DEMO_EDITOR.email);
+      await page.locator('[data-path="password"]').fill(DEMO_EDITOR.password);
+      await page.getByRole('button', { name: 'Sign in' }).click();
+      await page.getByTestId('signed-in-user').filter({ hasText: DEMO_EDITOR.displayName }).waitFor();
+
+      // 1. Build a zigzag model in the editor (in this device's own space).
       await page.getByRole('navigation', { name: 'Main' }).getByRole('link', { name: 'New model' }).click();
       await page.getByText('The model is valid.').waitFor();
       await fill(page, '$.name', 'zigzag e2e');
@@ -184,8 +194,9 @@ export const tests = [
           `including the page's own navigation and first render: ${longestMf.toFixed(0)} ms, ${longestEd.toFixed(0)} ms`,
       );
 
-      // 7. Reload: everything is still there (IndexedDB), including the renamed label.
+      // 7. Reload: everything is still there (IndexedDB), including the renamed label, and he is still signed in.
       await page.reload();
+      await page.getByTestId('signed-in-user').filter({ hasText: DEMO_EDITOR.displayName }).waitFor();
       await page.getByRole('navigation', { name: 'Main' }).getByRole('link', { name: 'This device' }).click();
       const items = page.getByRole('list', { name: 'Items' });
       await items.waitFor();

@@ -127,7 +127,8 @@ export function ProjectItems({ projectId, authors = {}, myUserId, reviewStates, 
                 </Link>
                 <span className="text-sm text-ink-600">{r.detail}</span>
                 {r.method ? <span className="text-xs text-ink-600">{r.method === 'ed' ? 'ED' : 'mean-field'}</span> : null}
-                <span className="text-xs text-ink-600">by {authorName(r.ownerId)}</span>
+                {/* This device's own space has no owners (nothing there leaves the browser): no "by". */}
+                {r.ownerId !== null || Object.keys(authors).length > 0 ? <span className="text-xs text-ink-600">by {authorName(r.ownerId)}</span> : null}
                 {rs && rs.state !== 'none' ? (
                   <span className={`text-xs font-semibold ${rs.state === 'approved' ? 'text-good-700' : rs.state === 'requested' ? 'text-ink-700' : 'text-amber-900'}`} title={rs.detail}>
                     {rs.text}
