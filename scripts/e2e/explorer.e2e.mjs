@@ -208,6 +208,18 @@ export const tests = [
       assert.equal(await page.locator('[data-testid="phase-map"] [data-point]').count(), 20);
       await page.getByTestId('points-table').waitFor();
       await screenshot('explorer-7-after-reload');
+
+      // 8. Delete the ED cut from this device (a dialog says what goes with it): its sweep goes too.
+      await page.getByRole('navigation', { name: 'Main' }).getByRole('link', { name: 'This device' }).click();
+      await items.getByRole('button', { name: 'Delete map zigzag ED cut' }).click();
+      const dialog = page.getByRole('dialog');
+      await dialog.getByText('This deletes the map "zigzag ED cut" with its sweep and 7 computed points from this browser.').waitFor();
+      await screenshot('explorer-8-delete-dialog');
+      await dialog.getByRole('button', { name: 'Delete for good' }).click();
+      await dialog.waitFor({ state: 'hidden' });
+      // The list follows the database (a live query): wait until it shows the three that stay.
+      await page.waitForFunction(() => document.querySelectorAll('ul[aria-label="Items"] > li').length === 3, undefined, { timeout: 10_000 });
+      assert.deepEqual(await items.locator('li a').allInnerTexts(), ['zigzag mean-field grid', 'zigzag mean-field grid', 'zigzag e2e'], 'the model and the mean-field sweep and map stay');
       await writeFile(join(screenshotDir, 'explorer-figures.txt'), `initial JS gzipped: ${(gz / 1024).toFixed(1)} kB\nlongest task during the MF sweep: ${sweepMf.toFixed(0)} ms (with navigation ${longestMf.toFixed(0)} ms)\nlongest task during the ED sweep: ${sweepEd.toFixed(0)} ms (with navigation ${longestEd.toFixed(0)} ms)\n`);
     },
   },

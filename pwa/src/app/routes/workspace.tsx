@@ -1,8 +1,9 @@
 import { Link } from 'react-router-dom';
 import { ProjectItems } from '../../features/projects/components/project-items.js';
+import { isActive } from '../../features/sweeps/lib/run-manager.js';
 import { LOCAL_PROJECT_ID, LOCAL_PROJECT_NAME } from '../../lib/db.js';
 
-/** /projects/device — the local-only space: models, sweeps and maps, newest first, with search. */
+/** /projects/device — the local-only space: models, sweeps and maps, newest first, with search; items can be deleted here. */
 export function Component() {
   return (
     <div className="space-y-5">
@@ -17,7 +18,7 @@ export function Component() {
           New model
         </Link>
       </div>
-      <ProjectItems projectId={LOCAL_PROJECT_ID} />
+      <ProjectItems projectId={LOCAL_PROJECT_ID} deletable={{ isRunning: isActive }} />
     </div>
   );
 }

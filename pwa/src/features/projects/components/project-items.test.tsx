@@ -1,5 +1,5 @@
 import type { ModelSpec } from '@phasewright/physics-core';
-import { render, screen, within } from '@testing-library/react';
+import { fireEvent, render, screen, waitFor, within } from '@testing-library/react';
 import { MemoryRouter } from 'react-router-dom';
 import { beforeEach, describe, expect, it } from 'vitest';
 import { db, LOCAL_PROJECT_ID } from '../../../lib/db.js';
@@ -30,5 +30,26 @@ describe('ProjectItems', () => {
     const item = (await screen.findByRole('link', { name: 'shared chain' })).closest('li') as HTMLElement;
     expect(within(item).getByText('by Otto Vane (me)')).toBeTruthy();
     expect(screen.getByRole('combobox', { name: 'Author' })).toBeTruthy();
+  });
+
+  it('deletes an item of this device after the dialog is confirmed; "Keep it" keeps it', async () => {
+    show(<ProjectItems projectId={LOCAL_PROJECT_ID} deletable={{ isRunning: () => false }} />);
+    fireEvent.click(await screen.findByRole('button', { name: 'Delete model local chain' }));
+    const dialog = await screen.findByRole('dialog');
+    expect(within(dialog).getByText(/This deletes the model "local chain" with 0 sweeps, 0 maps and 0 computed points from this browser/)).toBeTruthy();
+    fireEvent.click(within(dialog).getByRole('button', { name: 'Keep it' }));
+    await waitFor(() => expect(screen.queryByRole('dialog')).toBeNull());
+    expect(await db.models.get('m-local')).toBeDefined();
+    fireEvent.click(screen.getByRole('button', { name: 'Delete model local chain' }));
+    fireEvent.click(within(await screen.findByRole('dialog')).getByRole('button', { name: 'Delete for good' }));
+    await waitFor(() => expect(screen.queryByRole('link', { name: 'local chain' })).toBeNull());
+    expect(await db.models.get('m-local')).toBeUndefined();
+    expect(await db.models.get('m-shared')).toBeDefined();
+  });
+
+  it('offers no Delete in a server project', async () => {
+    show(<ProjectItems projectId="p1" myUserId="u-otto" authors={{ 'u-otto': 'Otto Vane' }} />);
+    await screen.findByRole('link', { name: 'shared chain' });
+    expect(screen.queryByRole('button', { name: /^Delete/ })).toBeNull();
   });
 });

@@ -1,7 +1,10 @@
 import { useLiveQuery } from 'dexie-react-hooks';
 import { useState } from 'react';
 import { Link } from 'react-router-dom';
+import { Button } from '../../../components/ui/button.js';
+import { ConfirmDialog } from '../../../components/ui/confirm-dialog.js';
 import { db } from '../../../lib/db.js';
+import { deleteLocal, describeDeletion, planLocalDelete, type LocalDeletion } from '../api/delete-local.js';
 
 type Kind = 'model' | 'sweep' | 'map';
 type Row = { kind: Kind; id: string; name: string; updatedAt: number; detail: string; method?: string; lattice?: string; ownerId: string | null };
@@ -26,12 +29,36 @@ interface ProjectItemsProps {
   reviewStateOptions?: readonly { value: string; label: string }[];
   /** Why review states are not available (shown beside the disabled filter). */
   reviewStatesNote?: string;
+  /**
+   * This device's own space only: offer Delete on each item, refusing sweeps for which this returns
+   * true (a run going on in this tab).
+   */
+  deletable?: { isRunning: (sweepId: string) => boolean };
 }
 
 const selectClass = 'rounded border border-line bg-surface px-2 py-1.5 disabled:opacity-60';
 
 /** A project's models, sweeps and maps as stored on this device, newest first, with search and filters. */
-export function ProjectItems({ projectId, authors = {}, myUserId, reviewStates, reviewStateOptions = [], reviewStatesNote }: ProjectItemsProps) {
+export function ProjectItems({ projectId, authors = {}, myUserId, reviewStates, reviewStateOptions = [], reviewStatesNote, deletable }: ProjectItemsProps) {
+  const [deletion, setDeletion] = useState<{ plan?: LocalDeletion; busy?: boolean; error?: string }>({});
+  const askDelete = async (kind: Kind, id: string) => {
+    try {
+      setDeletion({ plan: await planLocalDelete(kind, id, deletable?.isRunning) });
+    } catch (e) {
+      setDeletion({ error: e instanceof Error ? e.message : String(e) });
+    }
+  };
+  const confirmDelete = async () => {
+    const plan = deletion.plan;
+    if (!plan) return;
+    setDeletion({ plan, busy: true });
+    try {
+      await deleteLocal(plan);
+      setDeletion({});
+    } catch (e) {
+      setDeletion({ plan, error: `Nothing was deleted: ${e instanceof Error ? e.message : String(e)}` });
+    }
+  };
   const [q, setQ] = useState('');
   const [kind, setKind] = useState<'all' | Kind>('all');
   const [method, setMethod] = useState<'all' | 'ed' | 'meanfield'>('all');
@@ -111,6 +138,11 @@ export function ProjectItems({ projectId, authors = {}, myUserId, reviewStates, 
         ) : null}
         {!reviewStates && reviewStatesNote ? <span className="text-xs text-ink-600">{reviewStatesNote}</span> : null}
       </div>
+      {deletion.error && !deletion.plan ? (
+        <p className="text-sm text-red-800" role="alert">
+          {deletion.error}
+        </p>
+      ) : null}
       {rows === undefined ? (
         <p role="status">Loading…</p>
       ) : shown.length === 0 ? (
@@ -135,11 +167,32 @@ export function ProjectItems({ projectId, authors = {}, myUserId, reviewStates, 
                   </span>
                 ) : null}
                 <span className="ml-auto text-xs text-ink-500">{new Date(r.updatedAt).toLocaleString()}</span>
+                {deletable ? (
+                  <Button variant="ghost" className="px-2 py-0.5 text-xs" onClick={() => void askDelete(r.kind, r.id)} aria-label={`Delete ${r.kind} ${r.name}`}>
+                    Delete
+                  </Button>
+                ) : null}
               </li>
             );
           })}
         </ul>
       )}
+      <ConfirmDialog
+        open={!!deletion.plan}
+        title={`Delete this ${deletion.plan?.kind ?? 'item'}?`}
+        confirmLabel="Delete for good"
+        busy={deletion.busy}
+        error={deletion.plan ? deletion.error : undefined}
+        onConfirm={() => void confirmDelete()}
+        onClose={() => setDeletion({})}
+      >
+        {deletion.plan ? (
+          <>
+            <p>This deletes {describeDeletion(deletion.plan)} from this browser.</p>
+            <p>It was never sent to a server, so no copy remains anywhere: export it first (data package or JSON) if you may want it again.</p>
+          </>
+        ) : null}
+      </ConfirmDialog>
     </div>
   );
 }
