@@ -214,7 +214,7 @@ export const tests = [
       await items.getByRole('button', { name: 'Delete map zigzag ED cut' }).click();
       const dialog = page.getByRole('dialog');
       await dialog.getByText('This deletes the map "zigzag ED cut" with its sweep and 7 computed points from this browser.').waitFor();
-      await screenshot('explorer-8-delete-dialog');
+      await screenshot('explorer-7b-delete-dialog');
       await dialog.getByRole('button', { name: 'Delete for good' }).click();
       await dialog.waitFor({ state: 'hidden' });
       // The list follows the database (a live query): wait until it shows the three that stay.

@@ -90,6 +90,31 @@ describe('classifyPoint on ED points', () => {
     expect((dw.evidence.orderingVector as number[])[0]).toBeCloseTo(Math.PI, 9);
   });
 
+  it('a state without phase coherence is not superfluid, however small the cluster: the full lattice (one state) and a frozen crystal', () => {
+    // Every site occupied: ρ = 1, so f = 1/N = 1/6 — above the 0.15 threshold, yet nothing can move.
+    const full = solve({ ...xxzSpec('chain', [6], 1), particles: { kind: 'hardcore', filling: 1 } }, { method: 'ed' });
+    expect(full.condensateFraction).toBeCloseTo(1 / 6, 12);
+    expect(full.label?.id).toBe('unresolved');
+    expect(full.label?.evidence).toMatchObject({ incoherentFraction: 1 / 6, coherentFraction: 0 });
+    // No hopping at all (J = 0): the two crystal patterns, averaged; f = max n / N, no coherent excess.
+    const frozen = solve({ ...xxzSpec('chain', [6], 1), parameters: { J: 0, V: 1 } }, { method: 'ed', states: 2 });
+    expect(frozen.label?.id).toBe('density-wave');
+    expect(frozen.label?.evidence.secondary).toBeUndefined();
+  });
+
+  it('the label changes from superfluid to density wave between V = 2J and 4J on 8 and 12 sites, nearer 2J on the larger ring', () => {
+    // The thermodynamic transition is at Δ = V/2J = 1 (Yang & Yang, Phys. Rev. 1966); it is of
+    // Kosterlitz–Thouless type, so a small ring puts the change of label above it, closing in slowly.
+    const crossing = (L: number) => {
+      const Vs = [2, 2.5, 3, 3.5, 4];
+      const ids = Vs.map((V) => solve(xxzSpec('chain', [L], V), { method: 'ed' }).label!.id);
+      expect(ids[0]).toBe('superfluid');
+      expect(ids.at(-1)).toBe('density-wave');
+      return Vs[ids.indexOf('density-wave')];
+    };
+    expect(crossing(12)).toBeLessThanOrEqual(crossing(8));
+  });
+
   it('never calls one cluster a supersolid: with both signals it names the stronger and keeps the other', () => {
     for (const V of [1, 2, 3, 4]) {
       const label = chain(V).label!;

@@ -3,7 +3,8 @@
  * points (Result v1). Labels are data ({ id, confidence, evidence }), never UI strings.
  *
  * Signals:
- * - superfluid: condensateFraction ≥ `superfluidFraction`;
+ * - superfluid: condensateFraction ≥ `superfluidFraction` (ED: its coherent excess over the value
+ *   f₀ = max_i n_i / N that a state without phase coherence has, (f − f₀)/(1 − f₀));
  * - density wave: (max_{q≠0} S(q) − min_q S(q))/Ns ≥ `densityWave` (ordering vector = the q of the
  *   maximum; subtracting the minimum removes the q-independent local part);
  * - supersolid: both (mean-field only: on one ED cluster both signals are always finite, so ED
@@ -24,7 +25,7 @@ import { PhasewrightError } from '../errors.js';
 import type { PhaseLabel, Result } from '../result.js';
 
 export interface ClassifyOptions {
-  /** Condensate fraction above which a point is superfluid. @default 0.02 (mean-field), 0.15 (ED) */
+  /** Condensate fraction (ED: its coherent excess, see above) above which a point is superfluid. @default 0.02 (mean-field), 0.15 (ED) */
   superfluidFraction?: number;
   /** S(q)/Ns at q ≠ 0 above which a point has density-wave order. @default 0.02 (mean-field), 0.08 (ED) */
   densityWave?: number;
@@ -80,9 +81,18 @@ export function classifyPoint(result: Result, options: ClassifyOptions = {}): Cl
   if (starts !== undefined && startsAtMinimum !== undefined && startsAtMinimum < starts / 2) reliability *= 0.5;
 
   const signals: PhaseLabel[] = [];
-  const sf = result.condensateFraction;
+  const f = result.condensateFraction;
+  // ED: the largest eigenvalue of ρ_ij = ⟨b†_i b_j⟩ is at least its largest diagonal element, so even
+  // a state without any phase coherence (a crystal of localized particles, a full lattice) has
+  // f ≥ f₀ = max_i n_i / N — 1/N for a frozen pattern, 1/Ns for a uniform one — which on a small
+  // cluster is above any sensible threshold. The superfluid signal is the coherent excess
+  // (f − f₀)/(1 − f₀). Mean-field fractions are taken as they are (their thresholds are set for them).
+  const nTotal = result.sites.reduce((a, x) => a + x.density, 0);
+  const f0 = result.method === 'ed' && nTotal > 0 ? Math.min(1, Math.max(...result.sites.map((x) => x.density)) / nTotal) : 0;
+  const sf = f0 < 1 ? Math.max(0, (f - f0) / (1 - f0)) : 0;
+  const sfEvidence = result.method === 'ed' ? { condensateFraction: f, incoherentFraction: f0, coherentFraction: sf } : { condensateFraction: f };
   const isSf = sf >= o.superfluidFraction;
-  if (isSf) signals.push({ id: 'superfluid', confidence: reliability * margin(sf, o.superfluidFraction), evidence: { condensateFraction: sf, threshold: o.superfluidFraction } });
+  if (isSf) signals.push({ id: 'superfluid', confidence: reliability * margin(sf, o.superfluidFraction), evidence: { ...sfEvidence, threshold: o.superfluidFraction } });
 
   let peak = { q: [0, 0] as [number, number], value: 0 };
   let floor = Infinity;
@@ -139,12 +149,12 @@ export function classifyPoint(result: Result, options: ClassifyOptions = {}): Cl
     const b = find('density-wave')!;
     label = { id: 'supersolid', confidence: Math.min(a.confidence, b.confidence), evidence: { ...a.evidence, ...b.evidence } };
   } else if (isDw) label = find('density-wave')!;
-  else if (is120) label = { ...find('phase-order-120')!, evidence: { ...find('phase-order-120')!.evidence, condensateFraction: sf } };
-  else if (isChiral) label = { ...find('chiral-superfluid')!, evidence: { ...find('chiral-superfluid')!.evidence, condensateFraction: sf } };
+  else if (is120) label = { ...find('phase-order-120')!, evidence: { ...find('phase-order-120')!.evidence, ...sfEvidence } };
+  else if (isChiral) label = { ...find('chiral-superfluid')!, evidence: { ...find('chiral-superfluid')!.evidence, ...sfEvidence } };
   else if (isStaggered) label = find('flux-lattice')!;
   else if (isSf) label = find('superfluid')!;
   else {
-    label = { id: 'unresolved', confidence: reliability * 0.5, evidence: { condensateFraction: sf, structureFactorPerSite: dw, meanCirculation: mean, staggeredCirculation: rms, thresholds: o } };
+    label = { id: 'unresolved', confidence: reliability * 0.5, evidence: { ...sfEvidence, structureFactorPerSite: dw, meanCirculation: mean, staggeredCirculation: rms, thresholds: o } };
   }
   return { label, signals };
 }
