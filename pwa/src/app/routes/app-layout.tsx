@@ -57,7 +57,7 @@ function AccountArea() {
 }
 
 function navClass({ isActive }: { isActive: boolean }): string {
-  return `whitespace-nowrap rounded-md px-3 py-1.5 text-sm font-semibold transition-colors ${
+  return `whitespace-nowrap rounded-md px-2.5 py-1.5 text-sm font-semibold transition-colors ${
     isActive ? 'bg-ink-900 text-paper' : 'text-ink-800 hover:bg-ink-100 hover:text-ink-950'
   }`;
 }
@@ -94,7 +94,7 @@ export function AppShell({ children }: { children: ReactNode }) {
         Skip to content
       </a>
       <header className="border-b-2 border-ink-900 bg-paper text-ink-900">
-        <div className="mx-auto flex max-w-6xl flex-wrap items-center gap-x-3 gap-y-2 px-5 py-3">
+        <div className="mx-auto flex max-w-6xl flex-wrap items-center gap-x-2.5 gap-y-2 px-5 py-3">
           <NavLink to="/" className="flex items-center gap-2.5 rounded-md" aria-label="Phasewright, home">
             <LogoMark size={34} />
             <span className="text-lg font-bold tracking-tight">Phasewright</span>
