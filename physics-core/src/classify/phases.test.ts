@@ -97,7 +97,7 @@ describe('classifyPoint on ED points', () => {
     expect(full.label?.id).toBe('unresolved');
     expect(full.label?.evidence).toMatchObject({ incoherentFraction: 1 / 6, coherentFraction: 0 });
     // No hopping at all (J = 0): the two crystal patterns, averaged; f = max n / N, no coherent excess.
-    const frozen = solve({ ...xxzSpec('chain', [6], 1), parameters: { J: 0, V: 1 } }, { method: 'ed', states: 2 });
+    const frozen = solve({ ...xxzSpec('chain', [6], 1), parameters: { J: 0, V: 1 } }, { method: 'ed', ed: { states: 2 } });
     expect(frozen.label?.id).toBe('density-wave');
     expect(frozen.label?.evidence.secondary).toBeUndefined();
   });
