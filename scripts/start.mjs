@@ -2,10 +2,12 @@
 // `npm start`: everything needed to use Phasewright on this machine, then the server in the
 // foreground. Safe to re-run: nothing is re-initialised, no data is lost, finished builds are skipped.
 //   install deps → private MariaDB → migrate → seed demo → build → serve on http://127.0.0.1:8080
+//   → the demo project's first map (computed and pushed once, scripts/lib/demo-maps.mjs)
 // Ctrl-C or SIGTERM stops the server, then the database (when this command started it).
 import { buildAll } from './lib/build.mjs';
 import { startDatabase, stopDatabase } from './lib/db.mjs';
 import { dbTask } from './lib/db-tasks.mjs';
+import { ensureDemoMap } from './lib/demo-maps.mjs';
 import { ensureNodeModules } from './lib/deps.mjs';
 import { fail, info, onParentExit, runMain, ScriptError } from './lib/log.mjs';
 import { canBind, portFromEnv } from './lib/ports.mjs';
@@ -58,6 +60,16 @@ runMain(async () => {
     server.exited.then((exit) => {
       if (!stopping) void shutdown(`the server exited (${exit.code ?? exit.signal})`, 1);
     });
+
+    // The demo project's first map, through the server's own push (once; skipped when it has maps).
+    const editor = seed.signIns.find((s) => s.role === 'editor');
+    if (editor) {
+      try {
+        info(await ensureDemoMap(server.url, { email: editor.email, password: editor.password }));
+      } catch (err) {
+        info(`the demo map could not be added (the app works without it): ${err instanceof Error ? err.message : String(err)}`);
+      }
+    }
 
     const signIns = seed.signIns.length
       ? seed.signIns.map((s) => `    ${s.email} / ${s.password} (${s.role})`).join('\n')
