@@ -2,10 +2,10 @@
 // and compare against. Computed once, on the first `npm start` whose demo project has no map, with
 // physics-core in this process, and handed to the running server through its own sync push, signed
 // in as the demo editor: the server stores and merges it exactly as a map from the app. Invented
-// model and numbers of our own (see db/seeders/0001-demo-accounts.mjs for the scenario).
+// model and numbers of our own (see db/seeders/0001-demo-accounts.mjs for the scenario). Nothing but
+// Node built-ins at the top: scripts/start.mjs imports this before dependencies are installed.
 import { randomUUID } from 'node:crypto';
 import os from 'node:os';
-import { DEMO_PROJECT } from '../../db/seeders/0001-demo-accounts.mjs';
 
 /** Hardcore bosons on a 12-site kagome strip at half filling: −J hops, conditional second-neighbour hops −g·e^{i·turn·θ} through an occupied common neighbour, V n n. */
 export const DEMO_MODEL = {
@@ -53,6 +53,8 @@ async function call(baseUrl, path, { method = 'GET', token, body } = {}) {
  * @param {{ email: string, password: string }} editor a demo account with the editor role
  */
 export async function ensureDemoMap(baseUrl, editor) {
+  // Imported here, not at the top: `npm start` loads this file before it installs the dependencies.
+  const { DEMO_PROJECT } = await import('../../db/seeders/0001-demo-accounts.mjs');
   const session = await call(baseUrl, '/api/auth/sign-in', { method: 'POST', body: editor });
   const token = session.accessToken;
   const projects = await call(baseUrl, '/api/projects', { token });
