@@ -36,11 +36,21 @@ export const DEMO_SWEEP = {
   refine: { maxDepth: 1, on: ['label'] },
 };
 
+/**
+ * One API call. A kept-alive connection that the server closed while the map was being computed
+ * fails at once ("other side closed"); the call is then made once more on a new connection, which
+ * is safe here: the reads change nothing and a push with the same batch id is stored once.
+ */
 async function call(baseUrl, path, { method = 'GET', token, body } = {}) {
-  const res = await fetch(`${baseUrl}${path}`, {
-    method,
-    headers: { ...(token ? { authorization: `Bearer ${token}` } : {}), ...(body ? { 'content-type': 'application/json' } : {}) },
-    ...(body ? { body: JSON.stringify(body) } : {}),
+  const request = () =>
+    fetch(`${baseUrl}${path}`, {
+      method,
+      headers: { ...(token ? { authorization: `Bearer ${token}` } : {}), ...(body ? { 'content-type': 'application/json' } : {}) },
+      ...(body ? { body: JSON.stringify(body) } : {}),
+    });
+  const res = await request().catch((err) => {
+    if (err?.cause?.code === 'UND_ERR_SOCKET') return request();
+    throw err;
   });
   const text = await res.text();
   if (!res.ok) throw new Error(`${method} ${path}: ${res.status} ${text.slice(0, 300)}`);
