@@ -176,26 +176,8 @@ export function randomModel(seed: number, nSites: number, nParticles: number): C
   });
 }
 
-/** Dense complex matrix of a matvec (column by column), row-major re/im. */
-export function denseFromMatvec(
-  matvec: (x: Float64Array, y: Float64Array) => void,
-  n: number,
-): { re: Float64Array; im: Float64Array } {
-  const re = new Float64Array(n * n);
-  const im = new Float64Array(n * n);
-  const x = new Float64Array(2 * n);
-  const y = new Float64Array(2 * n);
-  for (let c = 0; c < n; c++) {
-    x.fill(0);
-    x[2 * c] = 1;
-    matvec(x, y);
-    for (let r = 0; r < n; r++) {
-      re[r * n + c] = y[2 * r];
-      im[r * n + c] = y[2 * r + 1];
-    }
-  }
-  return { re, im };
-}
+/** Dense complex matrix of a matvec (the solver's own, in src/eigen/lowest-eigenpairs.ts). */
+export { denseFromMatvec } from '../eigen/lowest-eigenpairs.js';
 
 /**
  * Eigen-decomposition of a complex Hermitian matrix with ml-matrix through the real symmetric

@@ -152,13 +152,12 @@ export function lowestEigenpairs(
   };
 }
 
-/** The lowest `states` eigenpairs of a small H built column by column from `matvec`. */
-function dense(matvec: (x: Float64Array, y: Float64Array) => void, n: number, states: number): LowestEigenpairsResult {
+/** Dense complex matrix of a matvec on interleaved (re, im) vectors, column by column; row-major re/im. */
+export function denseFromMatvec(matvec: (x: Float64Array, y: Float64Array) => void, n: number): { re: Float64Array; im: Float64Array } {
   const re = new Float64Array(n * n);
   const im = new Float64Array(n * n);
   const x = new Float64Array(2 * n);
   const y = new Float64Array(2 * n);
-  let norm = 0;
   for (let c = 0; c < n; c++) {
     x.fill(0);
     x[2 * c] = 1;
@@ -166,9 +165,17 @@ function dense(matvec: (x: Float64Array, y: Float64Array) => void, n: number, st
     for (let r = 0; r < n; r++) {
       re[r * n + c] = y[2 * r];
       im[r * n + c] = y[2 * r + 1];
-      norm = Math.max(norm, Math.hypot(y[2 * r], y[2 * r + 1]));
     }
   }
+  return { re, im };
+}
+
+/** The lowest `states` eigenpairs of a small H built column by column from `matvec`. */
+function dense(matvec: (x: Float64Array, y: Float64Array) => void, n: number, states: number): LowestEigenpairsResult {
+  const { re, im } = denseFromMatvec(matvec, n);
+  let norm = 0;
+  for (let q = 0; q < n * n; q++) norm = Math.max(norm, Math.hypot(re[q], im[q]));
+  const y = new Float64Array(2 * n);
   const eig = hermitianEigen(re, im, n);
   const values: number[] = [];
   const vectors: Float64Array[] = [];
