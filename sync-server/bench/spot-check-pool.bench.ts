@@ -6,21 +6,12 @@
  * (`dist/`), as production does; the script builds them first.
  */
 import { type MapPoint, planSweep, spotCheckJobs, type SweepSpec } from '@phasewright/physics-core';
+import { CHAIN_6 } from '../test/support/chain-model.js';
 
 const sweep: SweepSpec = {
   spec: 'phasewright.sweep/1',
   name: 'pool bench',
-  model: {
-    spec: 'phasewright.model/1',
-    name: 'chain L=6',
-    lattice: { kind: 'chain', size: [6], boundary: ['periodic'] },
-    particles: { kind: 'hardcore', filling: 0.5 },
-    parameters: { J: 1, V: 1 },
-    terms: [
-      { kind: 'hop', neighbors: 1, amplitude: '-J' },
-      { kind: 'interaction', neighbors: 1, amplitude: 'V' },
-    ],
-  },
+  model: CHAIN_6,
   axes: [{ parameter: 'V', kind: 'linear', from: 0, to: 4, points: 4 }],
   method: 'ed',
   seed: 7,

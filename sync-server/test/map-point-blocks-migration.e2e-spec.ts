@@ -4,22 +4,13 @@ import { QueryTypes } from 'sequelize';
 import { createMigrator } from '../../db/migrate.mjs';
 import { decodeBlock, POINTS_PER_BLOCK } from '../src/maps/point-blocks.js';
 import { createTestDatabase, type TestDatabase } from './support/test-database.js';
+import { CHAIN_6 } from './support/chain-model.js';
 
 /** A 30 × 20 grid whose points are TEST FIXTURES (closed-form numbers, not solver output). */
 const sweep: SweepSpec = {
   spec: 'phasewright.sweep/1',
   name: 'migration fixture',
-  model: {
-    spec: 'phasewright.model/1',
-    name: 'chain L=6',
-    lattice: { kind: 'chain', size: [6], boundary: ['periodic'] },
-    particles: { kind: 'hardcore', filling: 0.5 },
-    parameters: { J: 1, V: 1 },
-    terms: [
-      { kind: 'hop', neighbors: 1, amplitude: '-J' },
-      { kind: 'interaction', neighbors: 1, amplitude: 'V' },
-    ],
-  },
+  model: CHAIN_6,
   axes: [
     { parameter: 'V', kind: 'linear', from: 0, to: 4, points: 30 },
     { parameter: 'J', kind: 'linear', from: 0.5, to: 1.5, points: 20 },

@@ -1,25 +1,14 @@
 import { randomUUID } from 'node:crypto';
-import { InProcessExecutor, type ModelSpec, type PhaseMap, runSweep, solvePoint, type SweepSpec } from '@phasewright/physics-core';
+import { InProcessExecutor, type PhaseMap, runSweep, solvePoint, type SweepSpec } from '@phasewright/physics-core';
 import request from 'supertest';
 import { bearer, register, type Session, startTestApp, type TestApp } from './support/accounts.js';
 import { createTestDatabase, type TestDatabase } from './support/test-database.js';
+import { CHAIN_6 } from './support/chain-model.js';
 
-/** Hardcore bosons on a periodic 6-site chain at half filling (an invented test model; ED is instant). */
-const chain: ModelSpec = {
-  spec: 'phasewright.model/1',
-  name: 'chain L=6',
-  lattice: { kind: 'chain', size: [6], boundary: ['periodic'] },
-  particles: { kind: 'hardcore', filling: 0.5 },
-  parameters: { J: 1, V: 1 },
-  terms: [
-    { kind: 'hop', neighbors: 1, amplitude: '-J' },
-    { kind: 'interaction', neighbors: 1, amplitude: 'V' },
-  ],
-};
 const sweepTo = (to: number, points: number): SweepSpec => ({
   spec: 'phasewright.sweep/1',
   name: `chain V to ${to}`,
-  model: chain,
+  model: CHAIN_6,
   axes: [{ parameter: 'V', kind: 'linear', from: 0, to, points }],
   method: 'ed',
   seed: 5,

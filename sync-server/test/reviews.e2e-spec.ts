@@ -1,24 +1,13 @@
 import { randomUUID } from 'node:crypto';
-import { InProcessExecutor, type ModelSpec, type PhaseMap, parseMap, runSweep, solvePoint, type SweepSpec } from '@phasewright/physics-core';
+import { InProcessExecutor, type PhaseMap, parseMap, runSweep, solvePoint, type SweepSpec } from '@phasewright/physics-core';
 import request from 'supertest';
 import type { App } from 'supertest/types.js';
 import { loadSyncConfig } from '../src/sync/sync-config.js';
 import { bearer, register, type Session, type StoredMail, startTestApp, type TestApp } from './support/accounts.js';
 import { createTestDatabase, type TestDatabase } from './support/test-database.js';
+import { CHAIN_6 } from './support/chain-model.js';
 
-/** Hardcore bosons on a periodic 6-site chain at half filling (an invented test model). */
-const chain: ModelSpec = {
-  spec: 'phasewright.model/1',
-  name: 'chain L=6',
-  lattice: { kind: 'chain', size: [6], boundary: ['periodic'] },
-  particles: { kind: 'hardcore', filling: 0.5 },
-  parameters: { J: 1, V: 1 },
-  terms: [
-    { kind: 'hop', neighbors: 1, amplitude: '-J' },
-    { kind: 'interaction', neighbors: 1, amplitude: 'V' },
-  ],
-};
-const sweep: SweepSpec = { spec: 'phasewright.sweep/1', name: 'chain V cut for review', model: chain, axes: [{ parameter: 'V', kind: 'linear', from: 0, to: 2, points: 5 }], method: 'ed', seed: 5 };
+const sweep: SweepSpec = { spec: 'phasewright.sweep/1', name: 'chain V cut for review', model: CHAIN_6, axes: [{ parameter: 'V', kind: 'linear', from: 0, to: 2, points: 5 }], method: 'ed', seed: 5 };
 const run = async (chunk: number) =>
   (await runSweep(sweep, { executor: new InProcessExecutor(solvePoint), runtime: { kind: 'node', version: 'test', cores: 1 }, author: 'Eli Sand', chunk: { index: chunk, count: 2 } })).map;
 

@@ -7,7 +7,6 @@ import {
   InProcessExecutor,
   type MapPoint,
   mergeMaps,
-  type ModelSpec,
   type PhaseMap,
   planSweep,
   pointSeed,
@@ -21,25 +20,14 @@ import type { App } from 'supertest/types.js';
 import { loadSyncConfig, type SyncConfig } from '../src/sync/sync-config.js';
 import { bearer, register, type Session, startTestApp, type TestApp } from './support/accounts.js';
 import { createTestDatabase, type TestDatabase } from './support/test-database.js';
+import { CHAIN_6 } from './support/chain-model.js';
 
-/** Hardcore bosons on a periodic 6-site chain at half filling: −J hops, V n_i n_{i+1} (an invented test model). */
-const chain: ModelSpec = {
-  spec: 'phasewright.model/1',
-  name: 'chain L=6, nearest-neighbour repulsion',
-  lattice: { kind: 'chain', size: [6], boundary: ['periodic'] },
-  particles: { kind: 'hardcore', filling: 0.5 },
-  parameters: { J: 1, V: 1 },
-  terms: [
-    { kind: 'hop', neighbors: 1, amplitude: '-J' },
-    { kind: 'interaction', neighbors: 1, amplitude: 'V' },
-  ],
-};
-const edSweep: SweepSpec = { spec: 'phasewright.sweep/1', name: 'chain, V cut', model: chain, axes: [{ parameter: 'V', kind: 'linear', from: 0, to: 4, points: 9 }], method: 'ed', seed: 7 };
+const edSweep: SweepSpec = { spec: 'phasewright.sweep/1', name: 'chain, V cut', model: CHAIN_6, axes: [{ parameter: 'V', kind: 'linear', from: 0, to: 4, points: 9 }], method: 'ed', seed: 7 };
 /** A 60 × 60 grid for bulk tests; its points are fixtures (closed-form numbers, not solver output). */
 const gridSweep: SweepSpec = {
   spec: 'phasewright.sweep/1',
   name: 'fixture grid',
-  model: chain,
+  model: CHAIN_6,
   axes: [
     { parameter: 'V', kind: 'linear', from: 0, to: 4, points: 60 },
     { parameter: 'J', kind: 'linear', from: 0.5, to: 1.5, points: 60 },
@@ -301,7 +289,7 @@ describe('map sync against the private MariaDB', () => {
       expect(res.body.message).toMatch(message);
       expect(res.body.details[0].path).toMatch(/^changes\[1\]\.data/);
     }
-    const badModel = await push(editor, { batchId: randomUUID(), changes: [{ kind: 'model', id: randomUUID(), data: { spec: { ...chain, terms: [{ kind: 'hop', neighbors: 1, amplitude: '-J*' }] } } }] }).expect(400);
+    const badModel = await push(editor, { batchId: randomUUID(), changes: [{ kind: 'model', id: randomUUID(), data: { spec: { ...CHAIN_6, terms: [{ kind: 'hop', neighbors: 1, amplitude: '-J*' }] } } }] }).expect(400);
     expect(badModel.body.details[0].path).toBe('changes[0].data.spec.terms[0].amplitude');
     expect(await snapshot()).toBe(before);
   });
