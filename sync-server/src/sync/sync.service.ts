@@ -293,7 +293,7 @@ export class SyncService {
       // A stored map without any point (a sweep created and pushed before it ran) contributes no
       // run to the provenance: its only source is the placeholder's, which would stay "unfinished".
       // (With points stored, `points` holds only those under the pushed keys: the header merges whole.)
-      merged = Number(row.pointCount) > 0 ? mergeMaps([assembleMap(row, points), incoming]) : mergeMaps([incoming]);
+      merged = row.pointCount > 0 ? mergeMaps([assembleMap(row, points), incoming]) : mergeMaps([incoming]);
     } else {
       merged = mergeMaps([incoming]);
     }
