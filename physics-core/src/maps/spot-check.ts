@@ -112,7 +112,7 @@ export function compareSpotCheck(
   if (!(tolerance > 0)) throw new RangeError(`spot-check tolerance must be a positive number (got ${tolerance})`);
   const counts: Record<SpotCheckOutcome, number> = { reproduced: 0, 'stored-lower': 0, differs: 0, 'not-run': 0 };
   let maxAbs = 0;
-  let maxRel = -1;
+  let maxRel = 0;
   let worstKey: string | undefined;
   let labelsAgree = 0;
   let labelsCompared = 0;
@@ -129,7 +129,7 @@ export function compareSpotCheck(
       const abs = Math.abs(f.energy - old.energy);
       const rel = abs / Math.max(Math.abs(old.energy), 1);
       maxAbs = Math.max(maxAbs, abs);
-      if (rel > maxRel) {
+      if (worstKey === undefined || rel > maxRel) {
         maxRel = rel;
         worstKey = key;
       }
@@ -175,7 +175,7 @@ export function compareSpotCheck(
     tolerance,
     points,
     maxAbsEnergyDifference: maxAbs,
-    maxRelEnergyDifference: Math.max(0, maxRel),
+    maxRelEnergyDifference: maxRel,
     ...(worstKey !== undefined ? { worstKey } : {}),
     labelsAgree,
     labelsCompared,
